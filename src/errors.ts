@@ -1,0 +1,159 @@
+/**
+ * Errors thrown by quadrille. Every failure has its own class with a stable
+ * `code`, the offending numbers as fields, and a message that says what was
+ * wrong and what would be right.
+ *
+ * @module
+ */
+
+/** Base class of every error quadrille throws; catch this to catch them all. */
+export abstract class QuadrilleError extends Error {
+  /** Stable, machine-readable identifier of the kind of failure. */
+  abstract readonly code: string;
+
+  /** @param message - what was wrong and what would be right */
+  constructor(message: string) {
+    super(message);
+    this.name = new.target.name;
+  }
+}
+
+/** A derivative order that is negative, fractional or not a number. */
+export class InvalidDerivativeError extends QuadrilleError {
+  /** Always `'INVALID_DERIVATIVE'`. */
+  readonly code = 'INVALID_DERIVATIVE';
+  /** @param derivative - the value that was passed */
+  constructor(readonly derivative: number) {
+    super(`derivative = ${derivative} is not allowed; use a whole number ≥ 0 (1 for d/dx, 2 for d²/dx², …)`);
+  }
+}
+
+/** An accuracy order p that is not a positive whole number, or odd where it must be even. */
+export class InvalidAccuracyError extends QuadrilleError {
+  /** Always `'INVALID_ACCURACY'`. */
+  readonly code = 'INVALID_ACCURACY';
+  /**
+   * @param accuracy - the value that was passed
+   * @param why - the rule it broke and the fix
+   */
+  constructor(readonly accuracy: number, why: string) {
+    super(`accuracy = ${accuracy}: ${why}`);
+  }
+}
+
+/** Fewer nodes than a stencil of the requested derivative needs. */
+export class TooFewNodesError extends QuadrilleError {
+  /** Always `'TOO_FEW_NODES'`. */
+  readonly code = 'TOO_FEW_NODES';
+  /**
+   * @param count - nodes given
+   * @param needed - nodes needed at least
+   * @param what - what they were needed for
+   */
+  constructor(readonly count: number, readonly needed: number, what: string) {
+    super(`${count} node(s) given for ${what}; at least ${needed} are needed`);
+  }
+}
+
+/** Two stencil nodes at the same position. */
+export class DuplicateNodesError extends QuadrilleError {
+  /** Always `'DUPLICATE_NODES'`. */
+  readonly code = 'DUPLICATE_NODES';
+  /**
+   * @param i - index of the first of the pair
+   * @param j - index of the second of the pair
+   * @param value - the shared position
+   */
+  constructor(readonly i: number, readonly j: number, readonly value: string) {
+    super(`nodes[${i}] and nodes[${j}] are both ${value}; stencil nodes must be distinct`);
+  }
+}
+
+/** A NaN or infinite value where a finite number is required. */
+export class NonFiniteValueError extends QuadrilleError {
+  /** Always `'NON_FINITE'`. */
+  readonly code = 'NON_FINITE';
+  /**
+   * @param what - name of the input, with the index where it applies
+   * @param value - the offending value
+   */
+  constructor(readonly what: string, readonly value: number) {
+    super(`${what} is ${value}; a finite number is required`);
+  }
+}
+
+/** Stencil weights too large to represent in float64. */
+export class WeightOverflowError extends QuadrilleError {
+  /** Always `'WEIGHT_OVERFLOW'`. */
+  readonly code = 'WEIGHT_OVERFLOW';
+  /**
+   * @param derivative - derivative order requested
+   * @param count - number of nodes
+   */
+  constructor(readonly derivative: number, readonly count: number) {
+    super(
+      `weights of derivative ${derivative} on ${count} nodes overflow float64; ` +
+        'use fewer nodes, nodes closer together (scale them to unit spacing), or exactWeights',
+    );
+  }
+}
+
+/** A value that cannot be read as an exact rational number. */
+export class InvalidRationalError extends QuadrilleError {
+  /** Always `'INVALID_RATIONAL'`. */
+  readonly code = 'INVALID_RATIONAL';
+  /** @param input - the text or number that could not be read */
+  constructor(readonly input: string) {
+    super(
+      `cannot read ${JSON.stringify(input)} as an exact rational; ` +
+        'use an integer, a finite decimal (0.1), a fraction string ("1/3") or a bigint',
+    );
+  }
+}
+
+/** A stencil offset that is not a whole number, or a repeated offset. */
+export class InvalidOffsetsError extends QuadrilleError {
+  /** Always `'INVALID_OFFSETS'`. */
+  readonly code = 'INVALID_OFFSETS';
+  /** @param why - what is wrong with the offsets and the fix */
+  constructor(why: string) {
+    super(why);
+  }
+}
+
+/** A grid spacing that is zero, negative or not finite. */
+export class InvalidSpacingError extends QuadrilleError {
+  /** Always `'INVALID_SPACING'`. */
+  readonly code = 'INVALID_SPACING';
+  /**
+   * @param parameter - the parameter (`dx`, `dt`, …)
+   * @param value - the offending value
+   */
+  constructor(readonly parameter: string, readonly value: number) {
+    super(`${parameter} = ${value} is not a valid spacing; use a finite number > 0`);
+  }
+}
+
+/** Arrays whose lengths or shapes do not fit together. */
+export class ShapeMismatchError extends QuadrilleError {
+  /** Always `'SHAPE_MISMATCH'`. */
+  readonly code = 'SHAPE_MISMATCH';
+  /** @param why - which shapes disagree, with their sizes, and the fix */
+  constructor(why: string) {
+    super(why);
+  }
+}
+
+/** Node coordinates that do not increase strictly. */
+export class NonIncreasingNodesError extends QuadrilleError {
+  /** Always `'NON_INCREASING_NODES'`. */
+  readonly code = 'NON_INCREASING_NODES';
+  /**
+   * @param index - first index i with x[i] ≤ x[i − 1]
+   * @param previous - x[i − 1]
+   * @param value - x[i]
+   */
+  constructor(readonly index: number, readonly previous: number, readonly value: number) {
+    super(`x[${index}] = ${value} does not exceed x[${index - 1}] = ${previous}; node coordinates must increase strictly`);
+  }
+}

@@ -1,0 +1,7 @@
+/**
+ * quadrille: finite-difference stencils, operators and solvers on structured grids.
+ *
+ * @packageDocumentation
+ */
+export * from './stencil/index.js';
+export * from './errors.js';
