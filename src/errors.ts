@@ -22,9 +22,12 @@ export abstract class QuadrilleError extends Error {
 export class InvalidDerivativeError extends QuadrilleError {
   /** Always `'INVALID_DERIVATIVE'`. */
   readonly code = 'INVALID_DERIVATIVE';
-  /** @param derivative - the value that was passed */
-  constructor(readonly derivative: number) {
-    super(`derivative = ${derivative} is not allowed; use a whole number ≥ 0 (1 for d/dx, 2 for d²/dx², …)`);
+  /**
+   * @param derivative - the value that was passed
+   * @param rule - what is allowed here, and the fix
+   */
+  constructor(readonly derivative: number, rule = 'use a whole number ≥ 0 (1 for d/dx, 2 for d²/dx², …)') {
+    super(`derivative = ${derivative} is not allowed; ${rule}`);
   }
 }
 
@@ -155,5 +158,124 @@ export class NonIncreasingNodesError extends QuadrilleError {
    */
   constructor(readonly index: number, readonly previous: number, readonly value: number) {
     super(`x[${index}] = ${value} does not exceed x[${index - 1}] = ${previous}; node coordinates must increase strictly`);
+  }
+}
+
+/** A cell count that is not a whole number ≥ 1. */
+export class InvalidCellsError extends QuadrilleError {
+  /** Always `'INVALID_CELLS'`. */
+  readonly code = 'INVALID_CELLS';
+  /**
+   * @param where - the axis or helper the count was given to (`axis x`, `tanhAxis`, …)
+   * @param cells - the value that was passed
+   */
+  constructor(readonly where: string, readonly cells: number) {
+    super(
+      `${where}: cells = ${cells} is not allowed; use a whole number ≥ 1 ` +
+        '(n cells give n + 1 nodes, or n stored nodes on a periodic axis)',
+    );
+  }
+}
+
+/** Axis ends that are not an interval: `to` not above `from`. */
+export class InvalidIntervalError extends QuadrilleError {
+  /** Always `'INVALID_INTERVAL'`. */
+  readonly code = 'INVALID_INTERVAL';
+  /**
+   * @param where - the axis or helper the ends were given to
+   * @param from - the lower end that was passed
+   * @param to - the upper end that was passed
+   */
+  constructor(readonly where: string, readonly from: number, readonly to: number) {
+    super(`${where}: from = ${from}, to = ${to} is not an interval; use to > from`);
+  }
+}
+
+/** An axis name other than `x`, `y` or `z`. */
+export class UnknownAxisError extends QuadrilleError {
+  /** Always `'UNKNOWN_AXIS'`. */
+  readonly code = 'UNKNOWN_AXIS';
+  /** @param axis - the name that was passed */
+  constructor(readonly axis: string) {
+    super(`axis ${JSON.stringify(axis)} is not known; a grid has axes named x, y and z`);
+  }
+}
+
+/** An axis that is needed but absent: a gap in x, y, z, or an axis the grid lacks. */
+export class MissingAxisError extends QuadrilleError {
+  /** Always `'MISSING_AXIS'`. */
+  readonly code = 'MISSING_AXIS';
+  /**
+   * @param axis - the absent axis
+   * @param why - what needed it, and the fix
+   */
+  constructor(readonly axis: string, why: string) {
+    super(`axis ${axis} is missing: ${why}`);
+  }
+}
+
+/** An axis description that is neither uniform (`from`, `to`, `cells`) nor stretched (`nodes`). */
+export class InvalidAxisSpecError extends QuadrilleError {
+  /** Always `'INVALID_AXIS_SPEC'`. */
+  readonly code = 'INVALID_AXIS_SPEC';
+  /**
+   * @param axis - the axis described
+   * @param why - what is wrong with the description and the fix
+   */
+  constructor(readonly axis: string, why: string) {
+    super(`axis ${axis}: ${why}`);
+  }
+}
+
+/** A clustering parameter (spacing ratio, tanh stretching β) out of range or too strong for float64. */
+export class InvalidClusteringError extends QuadrilleError {
+  /** Always `'INVALID_CLUSTERING'`. */
+  readonly code = 'INVALID_CLUSTERING';
+  /**
+   * @param parameter - the parameter (`ratio`, `beta`)
+   * @param value - the offending value
+   * @param why - the rule it broke and the fix
+   */
+  constructor(readonly parameter: string, readonly value: number, why: string) {
+    super(`${parameter} = ${value}: ${why}`);
+  }
+}
+
+/** A face name that is not one of `xmin`, `xmax`, `ymin`, `ymax`, `zmin`, `zmax`. */
+export class UnknownFaceError extends QuadrilleError {
+  /** Always `'UNKNOWN_FACE'`. */
+  readonly code = 'UNKNOWN_FACE';
+  /** @param face - the name that was passed */
+  constructor(readonly face: string) {
+    super(
+      `face ${JSON.stringify(face)} is not known; use xmin, xmax, ymin, ymax, zmin or zmax ` +
+        '(the boundary at an axis\'s `from` or `to` end)',
+    );
+  }
+}
+
+/** A boundary face asked for on a periodic axis, which has no boundary. */
+export class PeriodicFaceError extends QuadrilleError {
+  /** Always `'PERIODIC_FACE'`. */
+  readonly code = 'PERIODIC_FACE';
+  /**
+   * @param face - the face asked for
+   * @param axis - its axis, which is periodic
+   */
+  constructor(readonly face: string, readonly axis: string) {
+    super(
+      `face ${face} does not exist: axis ${axis} is periodic, so its ends are one and the same ` +
+        'interior node line; ask only for faces of non-periodic axes',
+    );
+  }
+}
+
+/** A value passed as a field that is not an ndarray view over a Float64Array. */
+export class InvalidFieldError extends QuadrilleError {
+  /** Always `'INVALID_FIELD'`. */
+  readonly code = 'INVALID_FIELD';
+  /** @param why - what was passed instead, and the fix */
+  constructor(why: string) {
+    super(why);
   }
 }

@@ -35,6 +35,7 @@ function sameKindZeros<T extends Samples>(u: T, n: number): T {
 }
 
 function checkSamples(v: View, lo: number, hi: number, minOff: number, maxOff: number): void {
+  if (hi <= lo) return; // the stencil fits nowhere: nothing is read
   for (let i = lo + minOff; i < hi + maxOff; i++) {
     const x = v.data[v.offset + i * v.stride];
     if (!Number.isFinite(x)) throw new NonFiniteValueError(`u[${i}]`, x);

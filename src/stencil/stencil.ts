@@ -17,7 +17,7 @@
  * @module
  */
 import { checkDerivative } from '../check.js';
-import { InvalidAccuracyError, InvalidOffsetsError, WeightOverflowError } from '../errors.js';
+import { InvalidAccuracyError, InvalidDerivativeError, InvalidOffsetsError, WeightOverflowError } from '../errors.js';
 import { checkDistinctNumbers, exactTable } from './fornberg.js';
 import { Rational } from './rational.js';
 
@@ -51,6 +51,14 @@ function factorial(k: number): bigint {
   let f = 1n;
   for (let i = 2n; i <= BigInt(k); i++) f *= i;
   return f;
+}
+
+/** Named stencils approximate derivatives m ≥ 1; m = 0 (interpolation) goes through `stencil`. */
+function checkNamedDerivative(m: number): void {
+  checkDerivative(m);
+  if (m === 0) {
+    throw new InvalidDerivativeError(m, 'named stencils approximate derivatives ≥ 1; for interpolation use stencil(0, offsets)');
+  }
 }
 
 function checkAccuracy(accuracy: number): void {
@@ -130,13 +138,13 @@ function range(from: number, to: number): number[] {
  * offsets −K…K with K = ⌊(m + 1)/2⌋ − 1 + p/2, i.e. 2⌊(m + 1)/2⌋ − 1 + p
  * nodes. Source: Fornberg (1988), Table 1 lists these for m ≤ 4, p ≤ 8.
  *
- * @param derivative - m ≥ 1 (m = 0 is the trivial identity)
+ * @param derivative - m ≥ 1
  * @param accuracy - p, even, ≥ 2
  * @returns the stencil, whose `accuracy` equals p
  * @example Array.from(centralStencil(2, 2).weights) // [1, -2, 1]
  */
 export function centralStencil(derivative: number, accuracy: number): Stencil {
-  checkDerivative(derivative);
+  checkNamedDerivative(derivative);
   checkAccuracy(accuracy);
   if (accuracy % 2 !== 0) {
     throw new InvalidAccuracyError(
@@ -144,7 +152,6 @@ export function centralStencil(derivative: number, accuracy: number): Stencil {
       `a centred stencil has even accuracy; use ${accuracy - 1 > 0 ? `${accuracy - 1} or ` : ''}${accuracy + 1}, or a forward/backward stencil for odd orders`,
     );
   }
-  if (derivative === 0) return stencil(0, [0]);
   const k = Math.floor((derivative + 1) / 2) - 1 + accuracy / 2;
   return stencil(derivative, range(-k, k));
 }
@@ -159,7 +166,7 @@ export function centralStencil(derivative: number, accuracy: number): Stencil {
  * @example forwardStencil(1, 1).leadingError.toString() // '1/2'
  */
 export function forwardStencil(derivative: number, accuracy: number): Stencil {
-  checkDerivative(derivative);
+  checkNamedDerivative(derivative);
   checkAccuracy(accuracy);
   return stencil(derivative, range(0, derivative + accuracy - 1));
 }
@@ -174,7 +181,7 @@ export function forwardStencil(derivative: number, accuracy: number): Stencil {
  * @example Array.from(backwardStencil(1, 1).weights) // [-1, 1]
  */
 export function backwardStencil(derivative: number, accuracy: number): Stencil {
-  checkDerivative(derivative);
+  checkNamedDerivative(derivative);
   checkAccuracy(accuracy);
   return stencil(derivative, range(-(derivative + accuracy - 1), 0));
 }
