@@ -1,0 +1,40 @@
+import { execFileSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { FIN, runDemo } from '../../docs/examples/demo.js';
+import { quickStart } from '../../docs/examples/quick-start.js';
+
+describe('docs/examples run and print true numbers', () => {
+  it('quick start: weights from Fornberg (1988) Table 1, exact on a quadratic profile', () => {
+    const r = quickStart();
+    expect(r.weights).toEqual(['-1/12', '4/3', '-5/2', '4/3', '-1/12']);
+    expect(r.leadingError).toBe('-1/90');
+    // T = 20 + 300x²: T″ = 600 exactly; the stencil is exact on quadratics, rounding of
+    // ~Σ|w|·|T|/dx² = 5.3·110/1e-4 ≈ 6e6 times ε leaves ≤ 1.3e-9 — 16× that bounds it
+    expect(Math.abs(r.curvature - 600)).toBeLessThanOrEqual(16 * Number.EPSILON * 6e6);
+    // hand derivation in test/stencil/nonuniform.test.ts: [−2/3, 1/2, 1/6]
+    expect(r.biased.map((w) => w * 6)).toEqual([-4, 3, 1]);
+  });
+
+  it('demo: measured error matches the predicted leading term, heat flow matches the closed form', () => {
+    const d = runDemo();
+    expect(d.text).toMatch(/CAUTION/);
+    expect(d.text).toMatch(/licensed engineering practice/);
+    expect(d.rows.length).toBe(10);
+    for (const r of d.rows) {
+      if (r.roundoff > 0.1 * Math.abs(r.predicted)) continue; // the row the demo flags
+      // one-sided p = 4 at dx = 2.5 mm: next term is ~11 % (μ·dx·C₅/C₄ ≈ 0.03·3.7)
+      expect(Math.abs(r.measured / r.predicted - 1)).toBeLessThanOrEqual(0.12);
+    }
+    expect(d.rows.filter((r) => r.roundoff > 0.1 * Math.abs(r.predicted)).length).toBe(1);
+    // fin with adiabatic tip (Incropera et al., 6th ed., Table 3.4): μ = √(4h/(kD))
+    expect(d.mu).toBe(Math.sqrt((4 * FIN.hConv) / (FIN.k * FIN.diameter)));
+    expect(Math.abs(d.qStencil / d.qExact - 1)).toBeLessThan(2e-7);
+  });
+
+  it('npm run demo prints the table with the caution', () => {
+    const out = execFileSync(process.execPath, ['--import', 'tsx', 'docs/examples/demo.ts'], { encoding: 'utf8' });
+    expect(out).toMatch(/CAUTION/);
+    expect(out).toMatch(/-1\/12 4\/3 -5\/2 4\/3 -1\/12/);
+    expect(out.split('\n').filter((l) => /^x=/.test(l)).length).toBe(10);
+  });
+});
