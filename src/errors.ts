@@ -279,3 +279,76 @@ export class InvalidFieldError extends QuadrilleError {
     super(why);
   }
 }
+
+/** A matrix declared or required to be symmetric that is not. */
+export class NotSymmetricError extends QuadrilleError {
+  /** Always `'NOT_SYMMETRIC'`. */
+  readonly code = 'NOT_SYMMETRIC';
+  /** @param what - which matrix, and why symmetry was needed */
+  constructor(what: string) {
+    super(`${what} is not symmetric (A ≠ Aᵀ); declare it nonsymmetric, or use a solver for nonsymmetric systems`);
+  }
+}
+
+/** An option that is missing, of the wrong kind, or outside its allowed set. */
+export class InvalidOptionError extends QuadrilleError {
+  /** Always `'INVALID_OPTION'`. */
+  readonly code = 'INVALID_OPTION';
+  /**
+   * @param option - the option's name
+   * @param why - what was wrong and the fix
+   */
+  constructor(readonly option: string, why: string) {
+    super(`${option}: ${why}`);
+  }
+}
+
+/** Two conditions given for one boundary face. */
+export class DuplicateConditionError extends QuadrilleError {
+  /** Always `'DUPLICATE_CONDITION'`. */
+  readonly code = 'DUPLICATE_CONDITION';
+  /** @param face - the face named twice */
+  constructor(readonly face: string) {
+    super(`face ${face} has two conditions; give exactly one condition per face`);
+  }
+}
+
+/** A boundary face left without a condition. */
+export class MissingConditionError extends QuadrilleError {
+  /** Always `'MISSING_CONDITION'`. */
+  readonly code = 'MISSING_CONDITION';
+  /** @param faces - the faces without a condition */
+  constructor(readonly faces: readonly string[]) {
+    super(
+      `no condition for face(s) ${faces.join(', ')}; give each a dirichlet, neumann or robin condition ` +
+        '(an insulated face is { kind: "neumann", flux: 0 })',
+    );
+  }
+}
+
+/** A material or transfer coefficient that is zero, negative or not finite. */
+export class InvalidCoefficientError extends QuadrilleError {
+  /** Always `'INVALID_COEFFICIENT'`. */
+  readonly code = 'INVALID_COEFFICIENT';
+  /**
+   * @param what - the coefficient and where, e.g. `conductivity at (0.5, 0.25)`
+   * @param value - the offending value
+   */
+  constructor(readonly what: string, readonly value: number) {
+    super(`${what} is ${value}; it must be a finite number > 0`);
+  }
+}
+
+/** A matrix found singular (a zero pivot) during a direct factorisation. */
+export class SingularMatrixError extends QuadrilleError {
+  /** Always `'SINGULAR_MATRIX'`. */
+  readonly code = 'SINGULAR_MATRIX';
+  /**
+   * @param index - the row/column where the pivot vanished
+   * @param pivot - the pivot's value
+   * @param hint - what usually causes it here, and the fix
+   */
+  constructor(readonly index: number, readonly pivot: number, hint: string) {
+    super(`the matrix is singular to working precision: pivot ${pivot} at row ${index}; ${hint}`);
+  }
+}

@@ -4,4 +4,8 @@
  * @packageDocumentation
  */
 export * from './stencil/index.js';
+export * from './grid/index.js';
+export * from './operator/index.js';
+export * from './boundary/index.js';
+export * from './linalg/index.js';
 export * from './errors.js';
