@@ -32,7 +32,9 @@ export interface BandedLU {
 }
 
 /**
- * Factors a square sparse matrix as P·A = L·U inside its band.
+ * Factors a square sparse matrix as P·A = L·U inside its band. A pivot
+ * of magnitude ≤ n·ε·max|aᵢⱼ| is treated as zero (the matrix is singular to
+ * working precision, condition number ≳ 1/(nε)) and reported.
  *
  * @param a - the matrix (an Operator or a CSR matrix)
  * @param options - `maxBytes`: refuse a band larger than this (default 2 GiB)
@@ -69,12 +71,15 @@ export function factorBanded(a: Operator | CsrMatrix, options: Readonly<{ maxByt
     }
   }
   const ipiv = new Int32Array(n);
-  gbtf2(n, kl, ku, ab, ld, ipiv);
+  let big = 0;
+  for (let p = 0; p < m.values.length; p++) big = Math.max(big, Math.abs(m.values[p]!));
+  // a pivot below n·ε·max|aᵢⱼ| is round-off of a zero: the matrix is singular to working precision
+  gbtf2(n, kl, ku, ab, ld, ipiv, n * Number.EPSILON * big);
   return { n, lower: kl, upper: ku, band: ab, pivots: ipiv };
 }
 
-/** Unblocked banded LU (xGBTF2). Throws SingularMatrixError on a zero pivot. @internal */
-function gbtf2(n: number, kl: number, ku: number, ab: Float64Array, ld: number, ipiv: Int32Array): void {
+/** Unblocked banded LU (xGBTF2). Throws SingularMatrixError on a pivot ≤ tiny. @internal */
+function gbtf2(n: number, kl: number, ku: number, ab: Float64Array, ld: number, ipiv: Int32Array, tiny: number): void {
   const kv = ku + kl;
   let ju = 0;
   for (let j = 0; j < n; j++) {
@@ -90,8 +95,8 @@ function gbtf2(n: number, kl: number, ku: number, ab: Float64Array, ld: number, 
       }
     }
     ipiv[j] = j + jp;
-    if (best === 0) {
-      throw new SingularMatrixError(j, 0, 'a row or column is all zero or the system is singular (pure-flux problems need a fixed value somewhere)');
+    if (!(best > tiny)) {
+      throw new SingularMatrixError(j, ab[col + kv + jp]!, 'the system has no unique solution (a pure-flux problem needs a value fixed somewhere, or a row is missing)');
     }
     ju = Math.max(ju, Math.min(j + ku + jp, n - 1));
     if (jp !== 0) {
