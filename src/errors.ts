@@ -352,3 +352,45 @@ export class SingularMatrixError extends QuadrilleError {
     super(`the matrix is singular to working precision: pivot ${pivot} at row ${index}; ${hint}`);
   }
 }
+
+/** An iterative solver that stopped at its iteration cap (or broke down) above its tolerance. */
+export class NotConvergedError extends QuadrilleError {
+  /** Always `'NOT_CONVERGED'`. */
+  readonly code = 'NOT_CONVERGED';
+  /**
+   * @param method - the solver
+   * @param iterations - iterations done
+   * @param residual - final relative residual ‖b − Ax‖/‖b‖
+   * @param tolerance - the requested relative residual
+   * @param history - relative residual after each iteration (index 0: the start)
+   * @param why - what stopped it and what usually helps
+   */
+  constructor(
+    readonly method: string,
+    readonly iterations: number,
+    readonly residual: number,
+    readonly tolerance: number,
+    readonly history: Float64Array,
+    why: string,
+  ) {
+    super(`${method} stopped after ${iterations} iteration(s) at relative residual ${residual.toExponential(3)} > ${tolerance}: ${why}`);
+  }
+}
+
+/** Pure-flux data whose sources and boundary flows do not balance. */
+export class IncompatibleFluxError extends QuadrilleError {
+  /** Always `'INCOMPATIBLE_FLUX'`. */
+  readonly code = 'INCOMPATIBLE_FLUX';
+  /**
+   * @param imbalance - net heat gain of the data (source minus outflow, W or per unit depth)
+   * @param scale - sum of the magnitudes of all terms
+   * @param limit - the relative imbalance accepted
+   */
+  constructor(readonly imbalance: number, readonly scale: number, readonly limit: number) {
+    super(
+      `every face prescribes a flux, so a steady state needs the sources to balance the boundary flows, ` +
+        `but they miss by ${imbalance.toExponential(3)} (relative ${(Math.abs(imbalance) / scale).toExponential(2)} > ${limit}); ` +
+        'fix the data, prescribe a value or convection on some face, or raise compatibilityTolerance',
+    );
+  }
+}
