@@ -394,3 +394,189 @@ export class IncompatibleFluxError extends QuadrilleError {
     );
   }
 }
+
+/** An explicit time step above the stability limit. */
+export class StepTooLargeError extends QuadrilleError {
+  /** Always `'STEP_TOO_LARGE'`. */
+  readonly code = 'STEP_TOO_LARGE';
+  /**
+   * @param dt - the step asked for (s)
+   * @param dtMax - the largest stable step (s)
+   * @param scheme - the explicit scheme
+   */
+  constructor(readonly dt: number, readonly dtMax: number, readonly scheme: string) {
+    super(
+      `dt = ${dt} s exceeds the ${scheme} stability limit ${dtMax.toPrecision(6)} s; use dt ≤ ${dtMax.toPrecision(6)} s ` +
+        'or an implicit scheme (backward-euler, crank-nicolson), or set stabilityGuard: false for an experiment',
+    );
+  }
+}
+
+/** A solution that became NaN or infinite during a run. */
+export class BlowUpError extends QuadrilleError {
+  /** Always `'BLOW_UP'`. */
+  readonly code = 'BLOW_UP';
+  /**
+   * @param step - the step at whose end the first non-finite value appeared
+   * @param time - the time reached by that step (s)
+   */
+  constructor(readonly step: number, readonly time: number) {
+    super(
+      `the solution became non-finite at step ${step} (t = ${time} s); reduce dt below the stability limit, ` +
+        'use an implicit scheme, or check the data for NaN',
+    );
+  }
+}
+
+/** A matrix row whose diagonal entry is not positive, where a relaxation method needs aᵢᵢ > 0. */
+export class NonPositiveDiagonalError extends QuadrilleError {
+  /** Always `'NON_POSITIVE_DIAGONAL'`. */
+  readonly code = 'NON_POSITIVE_DIAGONAL';
+  /**
+   * @param row - the first row at fault
+   * @param value - its diagonal entry (0 if none is stored)
+   * @param what - the method that needs a positive diagonal
+   */
+  constructor(readonly row: number, readonly value: number, what: string) {
+    super(
+      `row ${row} has diagonal entry ${value}; ${what} needs a positive diagonal in every row, as the ` +
+        'symmetric positive definite system of −∇·(k∇u) has (pass system().matrix, not the operator ∇·(k∇u) itself)',
+    );
+  }
+}
+
+/** A convergence study or extrapolation given fewer levels than it needs. */
+export class TooFewLevelsError extends QuadrilleError {
+  /** Always `'TOO_FEW_LEVELS'`. */
+  readonly code = 'TOO_FEW_LEVELS';
+  /**
+   * @param count - levels given
+   * @param needed - levels needed at least
+   * @param what - what needed them
+   */
+  constructor(readonly count: number, readonly needed: number, what: string) {
+    super(`${what} needs at least ${needed} levels of refinement, got ${count}; add finer or coarser levels`);
+  }
+}
+
+/** Two successive levels of a study whose spacings do not shrink by the minimum refinement ratio. */
+export class RefinementRatioError extends QuadrilleError {
+  /** Always `'REFINEMENT_RATIO'`. */
+  readonly code = 'REFINEMENT_RATIO';
+  /**
+   * @param index - index of the finer level of the pair (levels ordered coarse to fine)
+   * @param ratio - coarse spacing over fine spacing of the pair (NaN if a spacing is not a positive number)
+   * @param minimum - the smallest ratio accepted
+   */
+  constructor(readonly index: number, readonly ratio: number, readonly minimum: number) {
+    super(
+      `levels ${index - 1} → ${index} refine by a ratio of ${ratio}; each level's spacing must be a finite number > 0 ` +
+        `and at least ${minimum} times smaller than the one before (order them coarse to fine, e.g. h, h/2, h/4)`,
+    );
+  }
+}
+
+/** An error norm that is zero, negative or not finite, so its logarithm (and an observed order) does not exist. */
+export class UnusableErrorNormError extends QuadrilleError {
+  /** Always `'UNUSABLE_ERROR_NORM'`. */
+  readonly code = 'UNUSABLE_ERROR_NORM';
+  /**
+   * @param norm - the norm (`l2`, `linf`, `quantity`)
+   * @param level - index of the level, coarse first
+   * @param value - the offending value
+   */
+  constructor(readonly norm: string, readonly level: number, readonly value: number) {
+    super(
+      `the ${norm} error on level ${level} is ${value}; an observed order needs errors that are finite and > 0 ` +
+        '(an exact result means the scheme reproduces this solution: pick one it cannot represent exactly)',
+    );
+  }
+}
+
+/** A convergence study whose observed order misses the expected order by more than the tolerance. */
+export class OrderNotReachedError extends QuadrilleError {
+  /** Always `'ORDER_NOT_REACHED'`. */
+  readonly code = 'ORDER_NOT_REACHED';
+  /**
+   * @param norm - the norm checked
+   * @param expected - the order the scheme promises
+   * @param observed - the order measured
+   * @param tolerance - the allowed |observed − expected|
+   * @param table - the study as a markdown table, printed in the message
+   */
+  constructor(
+    readonly norm: string,
+    readonly expected: number,
+    readonly observed: number,
+    readonly tolerance: number,
+    readonly table: string,
+  ) {
+    super(
+      `observed order ${observed.toFixed(3)} in the ${norm} norm differs from the expected ${expected} by more than ${tolerance}; ` +
+        `refine further if the errors are not yet asymptotic, or look for a lower-order term:\n${table}`,
+    );
+  }
+}
+
+/** A convergence study whose finest levels are not yet in the asymptotic range. */
+export class NotAsymptoticError extends QuadrilleError {
+  /** Always `'NOT_ASYMPTOTIC'`. */
+  readonly code = 'NOT_ASYMPTOTIC';
+  /**
+   * @param norm - the norm checked
+   * @param table - the study as a markdown table, printed in the message
+   */
+  constructor(readonly norm: string, readonly table: string) {
+    super(
+      `the ${norm} errors are not in the asymptotic range (the last two observed orders disagree, or the errors do not fall); ` +
+        `add finer levels:\n${table}`,
+    );
+  }
+}
+
+/** The apparent order of three solutions could not be found (equal solutions, or the fixed-point iteration failed). */
+export class ApparentOrderError extends QuadrilleError {
+  /** Always `'APPARENT_ORDER_NOT_FOUND'`. */
+  readonly code = 'APPARENT_ORDER_NOT_FOUND';
+  /**
+   * @param iterations - fixed-point iterations done
+   * @param last - the last iterate of p (NaN if none)
+   * @param why - what went wrong and the fix
+   */
+  constructor(readonly iterations: number, readonly last: number, why: string) {
+    super(`apparent order not found after ${iterations} iteration(s) (last p = ${last}): ${why}`);
+  }
+}
+
+/** A hyper-dual function evaluated outside its domain (log or sqrt of a non-positive number, division by zero). */
+export class HyperDualDomainError extends QuadrilleError {
+  /** Always `'HYPERDUAL_DOMAIN'`. */
+  readonly code = 'HYPERDUAL_DOMAIN';
+  /**
+   * @param operation - the function (`log`, `sqrt`, `div`, `pow`)
+   * @param value - the real part it was given
+   */
+  constructor(readonly operation: string, readonly value: number) {
+    super(
+      `${operation} of a hyper-dual number with real part ${value} has no finite derivatives; ` +
+        'keep the manufactured solution inside the domain of its functions (e.g. log and sqrt of values > 0)',
+    );
+  }
+}
+
+/** A matrix row whose diagonal entry is missing, zero or not finite where a smoother divides by it. */
+export class ZeroDiagonalError extends QuadrilleError {
+  /** Always `'ZERO_DIAGONAL'`. */
+  readonly code = 'ZERO_DIAGONAL';
+  /**
+   * @param row - the row (unknown) of the first such diagonal
+   * @param value - its value (0 if the entry is not stored)
+   * @param what - which matrix, e.g. `the fine-level matrix`
+   */
+  constructor(readonly row: number, readonly value: number, what: string) {
+    super(
+      `${what} has diagonal ${value} in row ${row}; Gauss–Seidel and Jacobi smoothing divide by the diagonal, ` +
+        'so every row needs a finite nonzero diagonal (store an identity row for a prescribed value)',
+    );
+  }
+}

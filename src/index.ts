@@ -8,4 +8,6 @@ export * from './grid/index.js';
 export * from './operator/index.js';
 export * from './boundary/index.js';
 export * from './linalg/index.js';
+export * from './time/index.js';
+export * from './problem/index.js';
 export * from './errors.js';

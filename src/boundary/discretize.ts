@@ -95,6 +95,12 @@ export interface Discretization {
   readonly conductivity: Readonly<Float64Array>;
   /** A: balance rows and constraint rows (module doc). */
   readonly operator: Operator;
+  /**
+   * S: the balance rows multiplied by their control volumes, diag(V)·A
+   * (at accuracy 2 assembled so that it is exactly symmetric), and the
+   * constraint rows as in A. What implicit time steps are built from.
+   */
+  readonly scaledOperator: Operator;
   /** 1 where the node's row is a constraint, 0 where it is a balance row. */
   readonly constrained: Readonly<Uint8Array>;
   /** 1 where the node's value is prescribed (on a value face). */
@@ -171,7 +177,8 @@ function faceNodes(g: Grid, bc: BoundaryConditions): FaceNodes[] {
   return out;
 }
 
-function sampleSource(g: Grid, f: Source | undefined, t: number, out: Float64Array): Float64Array {
+/** Nodal values of a source at time t. @internal */
+export function sampleSource(g: Grid, f: Source | undefined, t: number, out: Float64Array): Float64Array {
   if (f === undefined) return out.fill(0);
   if (typeof f === 'number') {
     if (!Number.isFinite(f)) throw new InvalidOptionError('source', `${f} is not finite`);
@@ -299,12 +306,29 @@ export function discretize(g: Grid, options: Readonly<DiscretizeOptions>): Discr
   }
 
   const operator = makeOperator({ rows: n, cols: n, shape: g.shape, symmetric: false, build });
+  const scaledOperator = makeOperator({
+    rows: n,
+    cols: n,
+    shape: g.shape,
+    symmetric: false,
+    build: () => {
+      if (p === 2) return assembleConservative(g, k, { scaledDiagonal: robinDiag, constrained, scaled: true });
+      const a = operator.matrix;
+      const values = Float64Array.from(a.values);
+      for (let r = 0; r < n; r++) {
+        if (constrained[r]) continue;
+        for (let q = a.rowPtr[r]!; q < a.rowPtr[r + 1]!; q++) values[q]! *= volumes[r]!;
+      }
+      return { ...a, values };
+    },
+  });
 
+  const count = new Uint8Array(n); // value faces met at each node, reused by every call
   const boundaryTerm = (t = 0, out?: Float64Array): Float64Array => {
     const y = out ?? new Float64Array(n);
     if (y.length !== n) throw new ShapeMismatchError(`out has ${y.length} entries but the grid has ${n} nodes`);
     y.fill(0);
-    const count = new Uint8Array(n);
+    count.fill(0);
     faces.forEach((f, fi) => {
       const c = f.condition;
       f.nodes.forEach((r, q) => {
@@ -336,7 +360,7 @@ export function discretize(g: Grid, options: Readonly<DiscretizeOptions>): Discr
     const f = sampleSource(g, opts.source, t, new Float64Array(n));
     const gvec = boundaryTerm(t);
     // accuracy 2: the exactly symmetric volume-scaled form S = diag(V)·A
-    const a = p === 2 ? assembleConservative(g, k, { scaledDiagonal: robinDiag, constrained, scaled: true }) : operator.matrix;
+    const a = p === 2 ? scaledOperator.matrix : operator.matrix;
     const b = new CsrBuilder(n, n, a.values.length);
     const rhs = new Float64Array(n);
     for (let r = 0; r < n; r++) {
@@ -428,6 +452,7 @@ export function discretize(g: Grid, options: Readonly<DiscretizeOptions>): Discr
     conditions: bc,
     conductivity: k,
     operator,
+    scaledOperator,
     constrained,
     prescribed,
     volumes,

@@ -29,6 +29,8 @@ export interface KrylovWorkspace {
   readonly size: number;
   /** The work vectors. @internal */
   readonly v: readonly Float64Array[];
+  /** Residual history buffer, grown to the largest iteration cap seen. @internal */
+  history: Float64Array;
 }
 
 /**
@@ -41,7 +43,7 @@ export interface KrylovWorkspace {
  */
 export function createKrylovWorkspace(n: number): KrylovWorkspace {
   if (!(Number.isSafeInteger(n) && n >= 1)) throw new ShapeMismatchError(`a workspace needs a whole number of unknowns ≥ 1, got ${n}`);
-  return { size: n, v: Array.from({ length: 8 }, () => new Float64Array(n)) };
+  return { size: n, v: Array.from({ length: 8 }, () => new Float64Array(n)), history: new Float64Array(0) };
 }
 
 /** Options of the Krylov solvers. */
@@ -50,8 +52,13 @@ export interface KrylovOptions extends IterativeOptions {
   readonly preconditioner?: Preconditioner;
   /** Starting guess (default 0); not modified. */
   readonly x0?: Float64Array;
-  /** Reused vectors from {@link createKrylovWorkspace}. */
+  /**
+   * Reused vectors from {@link createKrylovWorkspace}. With a workspace the
+   * returned `history` is a view into it, valid until its next solve.
+   */
   readonly workspace?: KrylovWorkspace;
+  /** Where to write the solution (may be `x0` itself); a new array if absent. */
+  readonly out?: Float64Array;
 }
 
 function dot(a: Float64Array, b: Float64Array, n: number): number {
@@ -84,7 +91,25 @@ function prepare(a: Operator | CsrMatrix, b: Float64Array, o: KrylovOptions) {
   }
   const ws = o.workspace ?? createKrylovWorkspace(n);
   if (ws.size !== n) throw new ShapeMismatchError(`the workspace holds ${ws.size} unknowns but the system has ${n}`);
+  if (o.out !== undefined && o.out.length !== n) throw new ShapeMismatchError(`out has ${o.out.length} entries but the system has ${n}`);
   return { op, n, ws };
+}
+
+/** Solution vector and history buffer of one solve. */
+function buffers(n: number, maxIt: number, o: KrylovOptions, ws: KrylovWorkspace): { x: Float64Array; history: Float64Array } {
+  const x = o.out ?? new Float64Array(n);
+  if (o.x0 !== undefined) {
+    if (o.x0 !== x) x.set(o.x0);
+  } else {
+    x.fill(0);
+  }
+  if (o.workspace === undefined) return { x, history: new Float64Array(maxIt + 1) };
+  if (ws.history.length < maxIt + 1) ws.history = new Float64Array(maxIt + 1);
+  return { x, history: ws.history };
+}
+
+function finalHistory(h: Float64Array, count: number, o: KrylovOptions): Float64Array {
+  return o.workspace === undefined ? h.slice(0, count) : h.subarray(0, count);
 }
 
 /**
@@ -105,9 +130,7 @@ export function conjugateGradient(a: Operator | CsrMatrix, b: Float64Array, opti
   const method = M === undefined ? 'cg' : `cg+${M.name}`;
   const t0 = performance.now();
   const [r, z, p, q] = ws.v as [Float64Array, Float64Array, Float64Array, Float64Array];
-  const x = new Float64Array(n);
-  if (options.x0 !== undefined) x.set(options.x0);
-  const history = new Float64Array(maxIt + 1);
+  const { x, history } = buffers(n, maxIt, options, ws);
   const bnorm = Math.sqrt(dot(b, b, n));
   if (bnorm === 0) return { solution: x.fill(0), iterations: 0, residual: 0, history: history.subarray(0, 1), method, seconds: 0 };
   const residual = (): number => {
@@ -157,7 +180,7 @@ export function conjugateGradient(a: Operator | CsrMatrix, b: Float64Array, opti
     throw new NotConvergedError(method, it, rel, tol, history.slice(0, it + 1),
       Number.isFinite(rel) ? 'raise maxIterations, use a stronger preconditioner (multigrid), or check the system' : 'the iteration produced non-finite values');
   }
-  return { solution: x, iterations: it, residual: rel, history: history.slice(0, it + 1), method, seconds: (performance.now() - t0) / 1000 };
+  return { solution: x, iterations: it, residual: rel, history: finalHistory(history, it + 1, options), method, seconds: (performance.now() - t0) / 1000 };
 }
 
 /**
@@ -180,9 +203,7 @@ export function bicgstab(a: Operator | CsrMatrix, b: Float64Array, options: Read
   const [r, rh, p, v, s, t, ph, sh] = ws.v as Float64Array[] as [
     Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
   ];
-  const x = new Float64Array(n);
-  if (options.x0 !== undefined) x.set(options.x0);
-  const history = new Float64Array(maxIt + 1);
+  const { x, history } = buffers(n, maxIt, options, ws);
   const bnorm = Math.sqrt(dot(b, b, n));
   if (bnorm === 0) return { solution: x.fill(0), iterations: 0, residual: 0, history: history.subarray(0, 1), method, seconds: 0 };
   const residual = (): number => {
@@ -258,5 +279,5 @@ export function bicgstab(a: Operator | CsrMatrix, b: Float64Array, options: Read
     }
   }
   if (!(rel <= tol)) throw new NotConvergedError(method, it, rel, tol, history.slice(0, it + 1), why);
-  return { solution: x, iterations: it, residual: rel, history: history.slice(0, it + 1), method, seconds: (performance.now() - t0) / 1000 };
+  return { solution: x, iterations: it, residual: rel, history: finalHistory(history, it + 1, options), method, seconds: (performance.now() - t0) / 1000 };
 }

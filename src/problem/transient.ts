@@ -1,0 +1,251 @@
+/**
+ * Transient problems in one call: diffusion type ρc ∂u/∂t = ∇·(k∇u) + f(x, t)
+ * by the θ-method family, and wave type u_tt = ∇·(c²∇u) − γu_t + f(x, t) by
+ * leapfrog, with every boundary condition of the boundary stage (data may
+ * depend on time) and the run driver's outputs, probes, progress,
+ * cancellation and checkpoints.
+ *
+ * Stability guard: explicit schemes (forward Euler, θ < ½, leapfrog) are
+ * checked against the Gershgorin limit of the operator before the first
+ * step (see `stabilityLimit`); a larger step is refused with
+ * StepTooLargeError unless `stabilityGuard: false` is passed, for
+ * experiments. Implicit steps (θ ≥ ½) are set up once per step size —
+ * Thomas in 1-D, multigrid-preconditioned CG in 2-D/3-D, warm-started.
+ *
+ * @module
+ */
+import ndarray from 'ndarray';
+import { type BoundaryConditions, type BoundarySpec, type Discretization, type Source, discretize } from '../boundary/index.js';
+import { InvalidOptionError, ShapeMismatchError, StepTooLargeError } from '../errors.js';
+import type { Field, Grid } from '../grid/index.js';
+import { checkField } from '../grid/field.js';
+import type { Coefficient } from '../operator/index.js';
+import { forEachNode, nodeCoordinates, sampleCoefficient } from '../operator/diffusion.js';
+import { createThetaStepper } from '../time/diffusion.js';
+import type { StepSolver } from '../time/implicit.js';
+import { type Checkpoint, type RunOptions, type RunResult, runStepper, stepPlan } from '../time/run.js';
+import { type StabilityLimit, stabilityLimit } from '../time/stability.js';
+import { createLeapfrogStepper, leapfrogEnergy } from '../time/wave.js';
+
+/** Initial data: a constant, a function of the node's coordinates, or a nodal field. */
+export type Initial = number | ((...coordinates: number[]) => number) | Field;
+
+/** A diffusion-type transient problem. */
+export interface TransientProblem {
+  /** The grid. */
+  readonly grid: Grid;
+  /** k > 0 (W/(m·K)), default 1. */
+  readonly conductivity?: Coefficient;
+  /** ρc > 0 (J/(m³·K)), default 1. */
+  readonly heatCapacity?: Coefficient;
+  /** f (W/m³): constant, function of coordinates then time, or field; default 0. */
+  readonly source?: Source;
+  /** The condition of every face (data may depend on time). */
+  readonly boundary: BoundarySpec | BoundaryConditions;
+  /** Spatial accuracy 2 (default), 4 or 6. */
+  readonly accuracy?: number;
+  /** u at the start time. */
+  readonly initial: Initial;
+}
+
+/** The time scheme of a diffusion-type run. */
+export type DiffusionScheme = 'forward-euler' | 'backward-euler' | 'crank-nicolson' | { readonly theta: number };
+
+/** Options of {@link solveTransient}. */
+export interface TransientOptions extends RunOptions {
+  /** The scheme. */
+  readonly scheme: DiffusionScheme;
+  /** Requested step (s); the run uses dt' = (end − start)/⌈(end − start)/dt⌉ ≤ dt. */
+  readonly dt: number;
+  /** Crank–Nicolson / θ: replace the first steps by two backward-Euler half steps each (Rannacher 1984); default 0. */
+  readonly rannacherSteps?: number;
+  /** Refuse explicit steps above the stability limit (default true). */
+  readonly stabilityGuard?: boolean;
+  /** Implicit-step solver (default 'auto'). */
+  readonly solver?: StepSolver;
+  /** Relative residual of iterative implicit solves (default 1e-10). */
+  readonly tolerance?: number;
+  /** Continue a run from this checkpoint (same problem and times). */
+  readonly resume?: Checkpoint;
+}
+
+/** A transient run's result with the stability estimate of explicit schemes. */
+export interface TransientResult extends RunResult {
+  /** The spectral estimates (explicit schemes only). */
+  readonly stability: StabilityLimit | undefined;
+  /** The discretisation used. */
+  readonly discretization: Discretization;
+}
+
+function sampleInitial(g: Grid, v: Initial, what: string): Float64Array {
+  const out = new Float64Array(g.size);
+  if (typeof v === 'number') {
+    if (!Number.isFinite(v)) throw new InvalidOptionError(what, `${v} is not finite`);
+    return out.fill(v);
+  }
+  if (typeof v === 'function') {
+    forEachNode(g, (r, i, j, k) => {
+      const x = v(...nodeCoordinates(g, i, j, k));
+      if (!Number.isFinite(x)) throw new InvalidOptionError(what, `the function gives ${x} at node ${r}`);
+      out[r] = x;
+    });
+    return out;
+  }
+  checkField(g, v, what);
+  const s = v.stride;
+  forEachNode(g, (r, i, j, k) => {
+    const x = v.data[v.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
+    if (!Number.isFinite(x)) throw new InvalidOptionError(what, `node ${r} holds ${x}`);
+    out[r] = x;
+  });
+  return out;
+}
+
+function usesFunctions(bc: BoundaryConditions, source: Source | undefined): boolean {
+  return typeof source === 'function' || bc.faces.some(({ condition: c }) =>
+    (c.kind === 'dirichlet' && typeof c.value === 'function') ||
+    (c.kind === 'neumann' && typeof c.flux === 'function') ||
+    (c.kind === 'robin' && typeof c.ambient === 'function'));
+}
+
+function checkResume(c: Checkpoint | undefined, scheme: string, start: number, end: number, dt: number, n: number, vectors: number): void {
+  if (c === undefined) return;
+  if (c.format !== 'quadrille-checkpoint' || c.scheme !== scheme || c.startTime !== start || c.endTime !== end || c.dt !== dt) {
+    throw new InvalidOptionError('resume', `the checkpoint is of a ${c.scheme} run ${c.startTime} → ${c.endTime} s with dt ${c.dt}, this run is ${scheme} ${start} → ${end} s with dt ${dt}; resume with the same times, step and scheme`);
+  }
+  if (c.state.length !== vectors || c.state.some((v) => v.length !== n)) {
+    throw new ShapeMismatchError(`the checkpoint holds ${c.state.length} vector(s) of ${c.state[0]?.length} values; this run needs ${vectors} of ${n}`);
+  }
+}
+
+/**
+ * Runs a diffusion-type transient problem (module doc).
+ *
+ * @param problem - grid, coefficients, source, boundary, initial field
+ * @param options - scheme, dt, end time, outputs, probes, hooks
+ * @returns the final field, outputs, probe series and a checkpoint
+ * @example solveTransient({ grid: grid({ x: { from: 0, to: 1, cells: 20 } }), initial: (x) => Math.sin(Math.PI * x), boundary: [{ faces: ['xmin', 'xmax'], kind: 'dirichlet', value: 0 }] }, { scheme: 'crank-nicolson', dt: 1e-3, endTime: 0.1 }).steps // 100
+ */
+export function solveTransient(problem: Readonly<TransientProblem>, options: Readonly<TransientOptions>): TransientResult {
+  const g = problem.grid;
+  const d = discretize(g, { conductivity: problem.conductivity, boundary: problem.boundary, accuracy: problem.accuracy });
+  const capacity = sampleCoefficient(g, problem.heatCapacity ?? 1, 'heatCapacity');
+  const start = options.startTime ?? 0;
+  const plan = stepPlan(start, options.endTime, options.dt);
+  const s = options.scheme;
+  const theta = s === 'forward-euler' ? 0 : s === 'backward-euler' ? 1 : s === 'crank-nicolson' ? 0.5 : s?.theta;
+  if (!(typeof theta === 'number' && theta >= 0 && theta <= 1)) {
+    throw new InvalidOptionError('scheme', 'use "forward-euler", "backward-euler", "crank-nicolson" or { theta } with 0 ≤ θ ≤ 1');
+  }
+  const rannacher = options.rannacherSteps ?? 0;
+  if (!(Number.isSafeInteger(rannacher) && rannacher >= 0)) throw new InvalidOptionError('rannacherSteps', `${rannacher} is not a whole number ≥ 0`);
+  let stability: StabilityLimit | undefined;
+  if (theta < 0.5) {
+    stability = stabilityLimit(d.operator, capacity, d.constrained as Uint8Array);
+    const limit = stability.forwardEuler / (1 - 2 * theta);
+    if (options.stabilityGuard !== false && plan.dt > limit) {
+      throw new StepTooLargeError(plan.dt, limit, theta === 0 ? 'forward Euler' : `θ = ${theta}`);
+    }
+  }
+  const u = sampleInitial(g, problem.initial, 'initial');
+  const stepper = createThetaStepper(
+    { d, capacity, source: problem.source, timeDependent: usesFunctions(d.conditions, problem.source) },
+    u, theta, plan.dt,
+    { solver: options.solver ?? 'auto', tolerance: options.tolerance ?? 1e-10, rannacherSteps: rannacher },
+  );
+  checkResume(options.resume, stepper.scheme, start, options.endTime, plan.dt, g.size, 1);
+  if (options.resume) u.set(options.resume.state[0]!);
+  const result = runStepper(g, stepper, plan, options, options.resume?.step ?? 0);
+  return { ...result, stability, discretization: d };
+}
+
+/** A wave-type transient problem u_tt = ∇·(c²∇u) − γu_t + f. */
+export interface WaveProblem {
+  /** The grid. */
+  readonly grid: Grid;
+  /** Wave speed c > 0 (m/s): constant, function of position or field (default 1). */
+  readonly waveSpeed?: Coefficient;
+  /** Linear damping γ ≥ 0 (1/s), default 0. */
+  readonly damping?: number;
+  /** f (m/s²): constant, function of coordinates then time, or field; default 0. */
+  readonly source?: Source;
+  /** The condition of every face (a clamped end is a value face, a free end a zero-flux face). */
+  readonly boundary: BoundarySpec | BoundaryConditions;
+  /** Spatial accuracy 2 (default), 4 or 6. */
+  readonly accuracy?: number;
+  /** Initial displacement. */
+  readonly initial: Initial;
+  /** Initial velocity (default 0). */
+  readonly velocity?: Initial;
+}
+
+/** Options of {@link solveWave}. */
+export interface WaveOptions extends RunOptions {
+  /** Requested step (s); the run uses dt' ≤ dt (see the run driver). */
+  readonly dt: number;
+  /** Refuse steps above the CFL limit (default true). */
+  readonly stabilityGuard?: boolean;
+  /** Continue a run from this checkpoint. */
+  readonly resume?: Checkpoint;
+}
+
+/** A wave run's result with its energy history. */
+export interface WaveResult extends RunResult {
+  /** The CFL estimates. */
+  readonly stability: StabilityLimit;
+  /** The discretisation of ∇·(c²∇u). */
+  readonly discretization: Discretization;
+  /** Discrete energy Eⁿ⁺½ after each step (module doc of the wave stepper), aligned with `times` from index 1. */
+  readonly energy: Float64Array;
+}
+
+/**
+ * Runs a wave-type problem by leapfrog with a second-order Taylor first
+ * step (see the wave stepper for the formula, accuracy and energy).
+ *
+ * @param problem - grid, wave speed, damping, boundary, initial displacement and velocity
+ * @param options - dt, end time, outputs, probes, hooks
+ * @returns the final displacement, outputs, probe series, energy, checkpoint
+ * @example solveWave({ grid: grid({ x: { from: 0, to: 1, cells: 50 } }), initial: (x) => Math.sin(Math.PI * x), boundary: [{ faces: ['xmin', 'xmax'], kind: 'dirichlet', value: 0 }] }, { dt: 0.01, endTime: 1 }).steps // 100
+ */
+export function solveWave(problem: Readonly<WaveProblem>, options: Readonly<WaveOptions>): WaveResult {
+  const g = problem.grid;
+  const c = sampleCoefficient(g, problem.waveSpeed ?? 1, 'waveSpeed');
+  const c2 = c.map((v) => v * v);
+  const d = discretize(g, {
+    conductivity: typeof problem.waveSpeed === 'number' || problem.waveSpeed === undefined ? (problem.waveSpeed ?? 1) ** 2 : (ndarrayOf(g, c2) as Field),
+    boundary: problem.boundary,
+    accuracy: problem.accuracy,
+  });
+  const gamma = problem.damping ?? 0;
+  if (!(Number.isFinite(gamma) && gamma >= 0)) throw new InvalidOptionError('damping', `${gamma} is not a finite number ≥ 0`);
+  const start = options.startTime ?? 0;
+  const plan = stepPlan(start, options.endTime, options.dt);
+  const stability = stabilityLimit(d.operator, new Float64Array(g.size).fill(1), d.constrained as Uint8Array);
+  if (options.stabilityGuard !== false && plan.dt > stability.leapfrog) {
+    throw new StepTooLargeError(plan.dt, stability.leapfrog, 'leapfrog (CFL)');
+  }
+  const u = sampleInitial(g, problem.initial, 'initial');
+  const v0 = sampleInitial(g, problem.velocity ?? 0, 'velocity');
+  const stepper = createLeapfrogStepper({ d, source: problem.source, damping: gamma, timeDependent: usesFunctions(d.conditions, problem.source) }, u, v0, plan.dt, options.resume?.step ?? 0);
+  checkResume(options.resume, 'leapfrog', start, options.endTime, plan.dt, g.size, 2);
+  if (options.resume) {
+    stepper.state[0]!.set(options.resume.state[0]!);
+    stepper.state[1]!.set(options.resume.state[1]!);
+  }
+  const energy = new Float64Array(plan.steps - (options.resume?.step ?? 0));
+  let k = 0;
+  const userHook = options.onStep;
+  const result = runStepper(g, stepper, plan, {
+    ...options,
+    onStep: (view) => {
+      energy[k++] = leapfrogEnergy(d, stepper.state[0]!, stepper.state[1]!, plan.dt);
+      if (userHook) userHook(view);
+    },
+  }, options.resume?.step ?? 0);
+  return { ...result, stability, discretization: d, energy: energy.slice(0, k) };
+}
+
+function ndarrayOf(g: Grid, v: Float64Array): Field {
+  return ndarray(v, [...g.shape]);
+}
