@@ -87,15 +87,22 @@ export function advection(g: Grid, options: Readonly<AdvectionOptions>): Operato
           continue;
         }
         const n = axis.count;
-        // upwind side: behind the flow; fall back to the side that exists
-        let q = v >= 0 ? p - 1 : p + 1;
-        if (q < 0 || q >= n) {
-          if (axis.periodic) q = (q + n) % n;
-          else q = v >= 0 ? p + 1 : p - 1;
-        }
         const x = axis.coordinates;
-        let dist = x[q]! - x[p]!;
-        if (axis.periodic && Math.abs(q - p) > 1) dist += q < p ? axis.to - axis.from : -(axis.to - axis.from);
+        const period = axis.to - axis.from;
+        // upwind side: behind the flow; at an inflow boundary, the side that exists
+        let side = v >= 0 ? -1 : 1;
+        if (!axis.periodic && (p + side < 0 || p + side >= n)) side = -side;
+        let q = p + side;
+        let dist: number;
+        if (axis.periodic) {
+          if (n === 1) continue; // a one-node periodic axis: u is constant along it
+          const wrapped = q < 0 || q >= n;
+          q = (q + n) % n;
+          // signed distance x_q − x_p, measured the short way across the seam
+          dist = x[q]! - x[p]! + (wrapped ? (side > 0 ? period : -period) : 0);
+        } else {
+          dist = x[q]! - x[p]!;
+        }
         // ∂u/∂x ≈ (u_q − u_p)/(x_q − x_p)
         const c = v / dist;
         m.add(r + (q - p) * strides[d]!, c);
@@ -142,9 +149,12 @@ export function cellPeclet(g: Grid, velocity: Velocity, diffusivity: number): Pe
     idx[1] = j;
     idx[2] = k;
     for (let d = 0; d < g.dimension; d++) {
-      const w = g.axes[d]!.widths;
+      const ax = g.axes[d]!;
+      const w = ax.widths;
       const p = idx[d]!;
-      const h = Math.max(p > 0 ? w[p - 1]! : 0, p < w.length ? w[p]! : 0);
+      // the cells on either side of the node; on a periodic axis node 0 also borders the wrap-around cell
+      const left = p > 0 ? w[p - 1]! : ax.periodic ? w[w.length - 1]! : 0;
+      const h = Math.max(left, p < w.length ? w[p]! : 0);
       perAxis[d] = Math.max(perAxis[d]!, (Math.abs(b[d]![r]!) * h) / diffusivity);
     }
   });

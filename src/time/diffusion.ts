@@ -26,6 +26,8 @@
  */
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
 import { CsrBuilder, type CsrMatrix, csrMultiply } from '../operator/matrix.js';
+import { factorTridiagonal } from '../linalg/thomas.js';
+import { fusedTridiagonalStep } from './base/tridiagonal-step.js';
 import { type PreparedSolve, type StepSolver, prepareSolve } from './implicit.js';
 import type { Stepper } from './stepper.js';
 
@@ -49,6 +51,25 @@ interface ThetaLevel {
   elimRow: Int32Array;
   elimCol: Int32Array;
   elimVal: Float64Array;
+  /** 1-D fast path: E's diagonals and K's Thomas factors, when both are tridiagonal. */
+  fused?: { es: Float64Array; ed: Float64Array; eu: Float64Array; a: Float64Array; inv: Float64Array; ratio: Float64Array };
+}
+
+function diagonalsOf(m: CsrMatrix): [Float64Array, Float64Array, Float64Array] | undefined {
+  const n = m.rows;
+  const s = new Float64Array(n);
+  const d = new Float64Array(n);
+  const u = new Float64Array(n);
+  for (let r = 0; r < n; r++) {
+    for (let q = m.rowPtr[r]!; q < m.rowPtr[r + 1]!; q++) {
+      const c = m.colIdx[q]!;
+      if (c === r - 1) s[r] = m.values[q]!;
+      else if (c === r) d[r] = m.values[q]!;
+      else if (c === r + 1) u[r] = m.values[q]!;
+      else return undefined;
+    }
+  }
+  return [s, d, u];
 }
 
 function buildLevel(p: DiffusionParts, theta: number, dt: number, solver: StepSolver, tolerance: number): ThetaLevel {
@@ -109,8 +130,18 @@ function buildLevel(p: DiffusionParts, theta: number, dt: number, solver: StepSo
     choice = onlyValues ? 'direct' : 'bicgstab';
   }
   const solve = prepareSolve(d.grid, km, symmetric, pres as Uint8Array, { solver: choice, tolerance });
+  const em = e.finish();
+  let fused: ThetaLevel['fused'];
+  if (solve.name === 'thomas') {
+    const ed = diagonalsOf(em);
+    const kd = diagonalsOf(km);
+    if (ed !== undefined && kd !== undefined) {
+      const f = factorTridiagonal(kd[0], kd[1], kd[2]);
+      fused = { es: ed[0], ed: ed[1], eu: ed[2], a: f.sub as Float64Array, inv: f.inversePivots as Float64Array, ratio: f.ratios as Float64Array };
+    }
+  }
   return {
-    theta, dt, e: e.finish(), k: km, solve,
+    theta, dt, e: em, k: km, solve, fused,
     elimRow: Int32Array.from(er), elimCol: Int32Array.from(ec), elimVal: Float64Array.from(ev),
   };
 }
@@ -154,25 +185,47 @@ export function createThetaStepper(
     fNext.set(fNow);
   }
   let iterations = 0;
-  const one = (l: ThetaLevel, t: number): void => {
-    const t1 = t + l.dt;
+  // b: the data part of the right-hand side; with constant data it is built once per level
+  const b = new Float64Array(n);
+  const dataPart = (l: ThetaLevel, t: number, out: Float64Array): void => {
     if (!constant) {
       d.boundaryTerm(t, gNow);
-      d.boundaryTerm(t1, gNext);
+      d.boundaryTerm(t + l.dt, gNext);
       sampleSource(d.grid, p.source, t, fNow);
-      sampleSource(d.grid, p.source, t1, fNext);
+      sampleSource(d.grid, p.source, t + l.dt, fNext);
     }
-    csrMultiply(l.e, u, rhs);
     const th = l.theta;
     for (let i = 0; i < n; i++) {
-      if (pres[i] || cons[i]) rhs[i] = gNext[i]!;
-      else rhs[i]! += V[i]! * (th * (gNext[i]! + fNext[i]!) + (1 - th) * (gNow[i]! + fNow[i]!));
+      if (pres[i] || cons[i]) out[i] = gNext[i]!;
+      else out[i] = V[i]! * (th * (gNext[i]! + fNext[i]!) + (1 - th) * (gNow[i]! + fNow[i]!));
     }
     for (let q = 0; q < l.elimRow.length; q++) {
-      const r = l.elimRow[q]!;
       // the eliminated entries K_rc of prescribed columns, times their values at tⁿ⁺¹
-      rhs[r]! -= l.elimVal[q]! * gNext[l.elimCol[q]!]!;
+      out[l.elimRow[q]!]! -= l.elimVal[q]! * gNext[l.elimCol[q]!]!;
     }
+  };
+  const constB = new Map<ThetaLevel, Float64Array>();
+  const one = (l: ThetaLevel, t: number): void => {
+    let data: Float64Array = b;
+    if (constant) {
+      let c = constB.get(l);
+      if (c === undefined) {
+        c = new Float64Array(n);
+        dataPart(l, t, c);
+        constB.set(l, c);
+      }
+      data = c;
+    } else {
+      dataPart(l, t, b);
+    }
+    if (l.fused !== undefined) {
+      const f = l.fused;
+      fusedTridiagonalStep(n, f.es, f.ed, f.eu, data, f.a, f.inv, f.ratio, u);
+      iterations = 0;
+      return;
+    }
+    csrMultiply(l.e, u, rhs);
+    for (let i = 0; i < n; i++) rhs[i]! += data[i]!;
     // warm start at the prescribed values of tⁿ⁺¹
     for (let i = 0; i < n; i++) if (pres[i]) u[i] = gNext[i]!;
     iterations = l.solve.solve(rhs, u);
