@@ -10,4 +10,5 @@ export * from './boundary/index.js';
 export * from './linalg/index.js';
 export * from './time/index.js';
 export * from './problem/index.js';
+export * from './verify/index.js';
 export * from './errors.js';

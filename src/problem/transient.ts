@@ -48,8 +48,14 @@ export interface TransientProblem {
   readonly initial: Initial;
 }
 
+/** The θ-method with a weight of one's own. */
+export interface ThetaScheme {
+  /** θ in [0, 1]: 0 forward Euler, ½ Crank–Nicolson, 1 backward Euler. */
+  readonly theta: number;
+}
+
 /** The time scheme of a diffusion-type run. */
-export type DiffusionScheme = 'forward-euler' | 'backward-euler' | 'crank-nicolson' | { readonly theta: number };
+export type DiffusionScheme = 'forward-euler' | 'backward-euler' | 'crank-nicolson' | ThetaScheme;
 
 /** Options of {@link solveTransient}. */
 export interface TransientOptions extends RunOptions {

@@ -14,6 +14,7 @@ import { InvalidOptionError } from '../errors.js';
 import type { Grid } from '../grid/index.js';
 import { factorBanded, solveBanded } from '../linalg/banded.js';
 import { bicgstab, conjugateGradient, createKrylovWorkspace } from '../linalg/krylov.js';
+import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, type Preconditioner } from '../linalg/preconditioners.js';
 import { thomasSolve, factorTridiagonal } from '../linalg/thomas.js';
 import type { CsrMatrix } from '../operator/matrix.js';
@@ -78,7 +79,12 @@ export function prepareSolve(
   const ws = createKrylovWorkspace(n);
   let M: Preconditioner;
   if (method === 'cg') {
-    M = incompleteCholesky(k);
+    if (g.axes.every((a) => a.uniform)) {
+      const mg = createMultigrid(g, k, { prescribed });
+      M = { name: 'multigrid', symmetric: true, apply: (r, z) => mg.precondition(r, z) };
+    } else {
+      M = incompleteCholesky(k);
+    }
     const o = { tolerance: options.tolerance, maxIterations: options.maxIterations, preconditioner: M, workspace: ws };
     return { name: `cg+${M.name}`, solve: (b, x) => conjugateGradient(op, b, { ...o, x0: x, out: x }).iterations };
   }

@@ -82,6 +82,14 @@ export interface Checkpoint {
   readonly state: readonly Float64Array[];
 }
 
+/** The field at one output time. */
+export interface Snapshot {
+  /** The output time (s). */
+  readonly time: number;
+  /** The field then, shape `grid.shape`. */
+  readonly field: Field;
+}
+
 /** A probe's recorded time series. */
 export interface ProbeSeries {
   /** Where. */
@@ -105,7 +113,7 @@ export interface RunResult {
   /** The scheme. */
   readonly scheme: string;
   /** Fields at the requested output times reached. */
-  readonly outputs: ReadonlyArray<{ readonly time: number; readonly field: Field }>;
+  readonly outputs: readonly Snapshot[];
   /** Times of the probe records: the start (or resume) time, then each step. */
   readonly times: Float64Array;
   /** One series per probe. */
@@ -211,7 +219,7 @@ export function runStepper(g: Grid, stepper: Stepper, plan: { steps: number; dt:
     }
   }
   const timeAt = (step: number): number => (step === steps ? o.endTime : start + step * dt);
-  const outputs: Array<{ time: number; field: Field }> = [];
+  const outputs: Snapshot[] = [];
   let nextOut = 0;
   while (nextOut < outTimes.length && outTimes[nextOut]! < timeAt(firstStep)) nextOut++;
   const keep = (t: number, a: Float64Array, b: Float64Array | undefined, s: number): void => {
