@@ -37,11 +37,13 @@ import { cases as operatorCases } from './operator/w1.bench.js';
 import { type BenchCase, caseName, defaultRuns, note, setDefaultRuns } from './harness.js';
 import { type PeerLine, peerSources, runPeers } from './reference/peers.js';
 import { cases as stencilCases } from './stencil/weights.bench.js';
+import { cases as timeCases } from './time/transient.bench.js';
 
 /** The workload groups, in run order: group name → its cases. */
 const registry: Readonly<Record<string, readonly BenchCase[]>> = {
   stencil: stencilCases,
   operator: operatorCases,
+  time: timeCases,
 };
 
 const all: readonly BenchCase[] = Object.entries(registry).flatMap(([group, cs]) => {

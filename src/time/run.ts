@@ -197,7 +197,7 @@ export function stepPlan(startTime: number, endTime: number, dt: number): { step
 export function runStepper(g: Grid, stepper: Stepper, plan: { steps: number; dt: number }, o: RunOptions, firstStep: number): RunResult {
   const start = o.startTime ?? 0;
   const { steps, dt } = plan;
-  const u = stepper.state[0]!;
+  let u = stepper.state[0]!;
   const n = u.length;
   const probes = (o.probes ?? []).map((pt) => ({ point: [...pt], ...probeWeights(g, pt) }));
   const records = steps - firstStep + 1;
@@ -244,12 +244,14 @@ export function runStepper(g: Grid, stepper: Stepper, plan: { steps: number; dt:
     const t1 = timeAt(step + 1);
     const wantOut = nextOut < outTimes.length && outTimes[nextOut]! <= t1;
     if (wantOut) before.set(u);
-    stepper.advance(t, step);
+    const reported = stepper.advance(t, step);
+    u = stepper.state[0]!;
     iterations += stepper.lastIterations;
     step++;
-    // blow-up: one pass; NaN or ±Infinity anywhere makes the sum non-finite
+    // blow-up: NaN or ±Infinity anywhere makes the sum non-finite
     let sum = 0;
-    for (let i = 0; i < n; i++) sum += u[i]!;
+    if (typeof reported === 'number') sum = reported;
+    else for (let i = 0; i < n; i++) sum += u[i]!;
     if (!Number.isFinite(sum)) throw new BlowUpError(step, t1);
     if (o.onStep) o.onStep({ time: t1, step, u });
     while (nextOut < outTimes.length && outTimes[nextOut]! <= t1) {

@@ -17,7 +17,11 @@ export interface Stepper {
   readonly scheme: string;
   /** Node count of each state vector. */
   readonly size: number;
-  /** The state vectors; `state[0]` is always the current solution u. */
+  /**
+   * The state vectors; `state[0]` is always the current solution u. A
+   * stepper may rotate the vectors between steps (leapfrog writes the new
+   * level over the oldest), so read `state[0]` after each step.
+   */
   readonly state: readonly Float64Array[];
   /**
    * Advances the state from time t to t + dt, where dt is the step the
@@ -26,8 +30,10 @@ export interface Stepper {
    *
    * @param t - time at the start of the step
    * @param step - index of this step
+   * @returns optionally, a sum over the new state that is non-finite if any
+   *   value is (so the driver can skip its own pass); undefined otherwise
    */
-  advance(t: number, step: number): void;
+  advance(t: number, step: number): number | void;
   /** Iterations of the last step's linear solve (0 for explicit or direct steps). */
   readonly lastIterations: number;
 }

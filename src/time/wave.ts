@@ -22,6 +22,7 @@
  */
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
 import { CsrBuilder, type CsrMatrix, csrMultiply } from '../operator/matrix.js';
+import { leapfrog5 } from './base/leapfrog5.js';
 import { prepareSolve, type PreparedSolve } from './implicit.js';
 import type { Stepper } from './stepper.js';
 
@@ -31,6 +32,11 @@ export interface WaveParts {
   readonly source: Source | undefined;
   readonly damping: number;
   readonly timeDependent: boolean;
+  /**
+   * The structured fast path, when it applies: a uniform 2-D grid, constant
+   * c, accuracy 2, value faces only and constant data. cx = c²/dx², cy = c²/dy².
+   */
+  readonly structured?: { readonly cx: number; readonly cy: number; readonly f: number };
 }
 
 /** Solves the flux constraint rows (accuracy 4, 6) for the boundary values, given the rest. */
@@ -62,14 +68,13 @@ function constraintSolver(d: Discretization): ((u: Float64Array, c: Float64Array
  *
  * @internal
  */
-export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float64Array, dt: number, startStep: number, previous?: Float64Array): Stepper {
+export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float64Array, dt: number): Stepper {
   const { d, damping: gamma } = p;
   const n = u0.length;
-  const pres = d.prescribed;
   const cons = d.constrained;
   const a = d.operator.matrix;
   const u = u0;
-  const prev = previous ?? new Float64Array(n);
+  const prev = new Float64Array(n);
   const next = new Float64Array(n);
   const au = new Float64Array(n);
   const g = new Float64Array(n);
@@ -85,19 +90,32 @@ export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float6
   const cp = 1 + (gamma * dt) / 2;
   const cm = 1 - (gamma * dt) / 2;
   const dt2 = dt * dt;
+  const state = [u, prev];
+  const st = p.structured;
+  const [nx, ny] = d.grid.shape as readonly number[] as [number, number];
   return {
     scheme: 'leapfrog',
     size: n,
-    state: [u, prev],
+    state,
     lastIterations: 0,
-    advance(t: number, step: number): void {
+    advance(t: number, step: number): number | void {
+      if (st !== undefined && step > 0) {
+        // one fused pass writes the new level over the oldest; then the two swap roles
+        const sum = leapfrog5(nx, ny, st.cx, st.cy, -2 * (st.cx + st.cy), dt2, cm, 1 / cp, st.f, state[0]!, state[1]!);
+        const t0 = state[0]!;
+        state[0] = state[1]!;
+        state[1] = t0;
+        return sum;
+      }
+      const u = state[0]!;
+      const prev = state[1]!;
       if (!constant) {
         d.boundaryTerm(t, g);
         d.boundaryTerm(t + dt, gNext);
         sampleSource(d.grid, p.source, t, f);
       }
       csrMultiply(a, u, au);
-      if (step === 0 && startStep === 0) {
+      if (step === 0) {
         // Taylor start from the initial velocity
         for (let i = 0; i < n; i++) {
           next[i] = cons[i] ? gNext[i]! : u[i]! + dt * v0[i]! + 0.5 * dt2 * (au[i]! + g[i]! + f[i]! - gamma * v0[i]!);
@@ -110,6 +128,7 @@ export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float6
       if (fix) fix(next, gNext);
       prev.set(u);
       u.set(next);
+      return undefined;
     },
   };
 }

@@ -1,0 +1,117 @@
+/**
+ * Transient workloads of WORKLOADS.md: W3 (1-D Crank–Nicolson, 10⁶ interior
+ * nodes, 100 steps), W4 (2-D Crank–Nicolson, 511² interior, 50 steps to a
+ * relative residual of 1e-10) and W5 (2-D leapfrog, 1024² interior, 1000
+ * steps). Each figure: set-up (discretisation, factorisation or multigrid
+ * hierarchy) excluded from `median_s` and printed as `setup_s`; the error
+ * against the closed-form solution; peak RSS.
+ *
+ * @module
+ */
+import { grid, solveTransient, solveWave } from '../../src/index.js';
+import { type BenchCase, type Timing, median, note, printLine } from '../harness.js';
+
+/**
+ * Runs `body` untimed once, then `runs` times, and returns the timing of the
+ * seconds each run reports for its stepping loop (set-up excluded) and the
+ * median of the whole calls (set-up included).
+ */
+function timeLoops(runs: number, body: () => number): { timing: Timing; total: number } {
+  body();
+  const times: number[] = [];
+  const totals: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    const t0 = performance.now();
+    times.push(body());
+    totals.push((performance.now() - t0) / 1000);
+  }
+  return { timing: { runs, median: median(times), min: Math.min(...times), max: Math.max(...times), times }, total: median(totals) };
+}
+
+function runW3(): void {
+  const n = 1_000_000;
+  const g = grid({ x: { from: 0, to: 1, cells: n + 1 } });
+  const T = 100 * 1e-5;
+  const problem = { grid: g, initial: (x: number) => Math.sin(Math.PI * x), boundary: [{ faces: ['xmin', 'xmax'], kind: 'dirichlet', value: 0 }] } as const;
+  let err = 0;
+  const { timing, total } = timeLoops(5, () => {
+    const r = solveTransient(problem, { scheme: 'crank-nicolson', dt: 1e-5, endTime: T });
+    const h = 1 / (n + 1);
+    const decay = Math.exp(-(Math.PI ** 2) * T);
+    err = 0;
+    for (let i = 0; i <= n + 1; i++) err = Math.max(err, Math.abs(r.field.data[i]! - decay * Math.sin(Math.PI * i * h)));
+    return r.seconds;
+  });
+  printLine({ id: 'W3', impl: 'quadrille', variant: 'cn-thomas', path: 'ts', size: { n, steps: 100 }, timing, figures: { total_s: total, max_err: err } });
+}
+
+/** The double sine series of u₀ = 16x(1−x)y(1−y) (WORKLOADS.md W4), to 1e-15. */
+function w4Exact(x: number, y: number, t: number): number {
+  let s = 0;
+  for (let m = 1; m < 200; m += 2) {
+    for (let k = 1; k < 200; k += 2) {
+      const term = (1024 / (m ** 3 * k ** 3 * Math.PI ** 6)) * Math.exp(-(m * m + k * k) * Math.PI ** 2 * t);
+      if (term < 1e-18) break;
+      s += term * Math.sin(m * Math.PI * x) * Math.sin(k * Math.PI * y);
+    }
+  }
+  return s;
+}
+
+function runW4(): void {
+  const cells = 512;
+  const g = grid({ x: { from: 0, to: 1, cells }, y: { from: 0, to: 1, cells } });
+  const problem = {
+    grid: g,
+    initial: (x: number, y: number) => 16 * x * (1 - x) * y * (1 - y),
+    boundary: [{ faces: ['xmin', 'xmax', 'ymin', 'ymax'], kind: 'dirichlet', value: 0 }],
+  } as const;
+  const T = 50 * 1e-4;
+  let err = 0;
+  let iters = 0;
+  const { timing, total } = timeLoops(5, () => {
+    const r = solveTransient(problem, { scheme: 'crank-nicolson', dt: 1e-4, endTime: T, tolerance: 1e-10 });
+    iters = r.iterations;
+    err = 0;
+    for (let i = 0; i <= cells; i += 8) for (let j = 0; j <= cells; j += 8) err = Math.max(err, Math.abs(r.field.get(i, j) - w4Exact(i / cells, j / cells, T)));
+    return r.seconds;
+  });
+  printLine({
+    id: 'W4', impl: 'quadrille', variant: 'cn-mg-pcg', path: 'ts', size: { n: cells - 1, steps: 50 }, timing,
+    figures: { total_s: total, per_step_s: timing.median / 50, iters, max_err: err },
+  });
+}
+
+function runW5(): void {
+  const n = 1024;
+  const cells = n + 1;
+  const h = 1 / cells;
+  const g = grid({ x: { from: 0, to: 1, cells }, y: { from: 0, to: 1, cells } });
+  const problem = {
+    grid: g,
+    initial: (x: number, y: number) => Math.sin(Math.PI * x) * Math.sin(Math.PI * y),
+    boundary: [{ faces: ['xmin', 'xmax', 'ymin', 'ymax'], kind: 'dirichlet', value: 0 }],
+  } as const;
+  const steps = 1000;
+  const T = steps * 0.5 * h;
+  let err = 0;
+  const { timing, total } = timeLoops(5, () => {
+    const r = solveWave(problem, { dt: 0.5 * h, endTime: T });
+    const c = Math.cos(Math.SQRT2 * Math.PI * T);
+    err = 0;
+    for (let i = 0; i <= cells; i += 4) for (let j = 0; j <= cells; j += 4) err = Math.max(err, Math.abs(r.field.get(i, j) - c * Math.sin(Math.PI * i * h) * Math.sin(Math.PI * j * h)));
+    return r.seconds;
+  });
+  printLine({
+    id: 'W5', impl: 'quadrille', variant: 'leapfrog', path: 'ts', size: { n, steps }, timing,
+    figures: { total_s: total, s_per_step: timing.median / steps, mpts_per_s: (n * n) / (timing.median / steps) / 1e6, max_err: err },
+  });
+  note('W3-W5: median_s is the stepping loop (set-up excluded); total_s includes discretisation and set-up');
+}
+
+/** The time group's cases. */
+export const cases: readonly BenchCase[] = [
+  { id: 'W3', group: 'time', title: '1-D Crank–Nicolson, 10⁶ interior nodes, 100 steps (Thomas, factored once)', run: runW3 },
+  { id: 'W4', group: 'time', title: '2-D Crank–Nicolson, 511² interior, 50 steps, PCG + multigrid to 1e-10', run: runW4 },
+  { id: 'W5', group: 'time', title: '2-D leapfrog, 1024² interior, 1000 steps', run: runW5 },
+];
