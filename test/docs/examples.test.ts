@@ -2,6 +2,9 @@ import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { FIN, runDemo } from '../../docs/examples/demo.js';
 import { quickStart } from '../../docs/examples/quick-start.js';
+import { plateStudy } from '../../docs/examples/convergence.js';
+import { wallWarmUp } from '../../docs/examples/wall.js';
+import { erfc } from '../../src/index.js';
 
 describe('docs/examples run and print true numbers', () => {
   it('quick start: weights from Fornberg (1988) Table 1, exact on a quadratic profile', () => {
@@ -29,6 +32,26 @@ describe('docs/examples run and print true numbers', () => {
     // fin with adiabatic tip (Incropera et al., 6th ed., Table 3.4): μ = √(4h/(kD))
     expect(d.mu).toBe(Math.sqrt((4 * FIN.hConv) / (FIN.k * FIN.diameter)));
     expect(Math.abs(d.qStencil / d.qExact - 1)).toBeLessThan(2e-7);
+  });
+
+  it('convergence example: the plate value converges at order 2 to the Fourier series (Carslaw & Jaeger 1959, §5.2)', () => {
+    const s = plateStudy();
+    expect(Math.abs(s.fits.quantity!.order - 2)).toBeLessThanOrEqual(0.1);
+    expect(s.asymptotic.quantity).toBe(true);
+  });
+
+  it('wall example: early on the mid-wall probe follows the semi-infinite solid (Carslaw & Jaeger 1959, §2.4)', () => {
+    const r = wallWarmUp();
+    expect(r.steps).toBe(480);
+    // α = 1.4/1.9e6 m²/s; after 1 h the heat has gone 2√(αt) ≈ 0.1 m, the far face is 0.2 m away,
+    // so the probe at 0.1 m is close to 20 + 100·erfc(0.1/(2√(αt))) (within ~1 K: the far face is felt)
+    const alpha = 1.4 / 1.9e6;
+    const k = r.times.indexOf(3600);
+    const want = 20 + 100 * erfc(0.1 / (2 * Math.sqrt(alpha * 3600)));
+    expect(Math.abs(r.probes[0]!.values[k]! - want)).toBeLessThanOrEqual(1);
+    const last = r.probes[0]!.values[r.probes[0]!.values.length - 1]!;
+    expect(last).toBeGreaterThan(20);
+    expect(last).toBeLessThan(120);
   });
 
   it('npm run demo prints the table with the caution', () => {
