@@ -11,8 +11,10 @@
  *   GCI_fine²¹ = F_s·e_a²¹/(r₂₁ᵖ − 1)       F_s = 1.25 (three grids), 3 (two)
  *
  * Convergence type from R = ε₂₁/ε₃₂: monotone for 0 < R < 1, oscillatory for
- * R < 0 (s < 0), divergent for R ≥ 1 (the changes do not shrink). The GCI is
- * only meaningful for monotone convergence in the asymptotic range.
+ * −1 < R < 0 (s < 0), divergent for |R| ≥ 1 (the changes do not shrink, of
+ * either sign; R ≤ −1 is oscillatory divergence and sets both flags). The
+ * GCI is only meaningful for monotone convergence in the asymptotic range.
+ * The numbers are still returned when a flag is set; read the flags first.
  *
  * Representative spacing of a grid of N cells in D dimensions over a
  * domain of size V: h = (V/N)^{1/D}.
@@ -57,11 +59,11 @@ export interface GridConvergence {
   readonly gciFine: number;
   /** The safety factor F_s used. */
   readonly safetyFactor: number;
-  /** Convergence type from R = ε₂₁/ε₃₂ ('assumed' for two grids, where it cannot be seen). */
+  /** Convergence type from R = ε₂₁/ε₃₂: 'monotone' 0 < R < 1, 'oscillatory' −1 < R < 0, 'divergent' |R| ≥ 1 ('assumed' for two grids, where it cannot be seen). */
   readonly convergence: 'monotone' | 'oscillatory' | 'divergent' | 'assumed';
-  /** True when s = sign(ε₃₂/ε₂₁) < 0. */
+  /** True when s = sign(ε₃₂/ε₂₁) < 0: the change flips sign between the pairs (converging or not). */
   readonly oscillatory: boolean;
-  /** True when R ≥ 1: the change does not shrink on refinement. */
+  /** True when |R| ≥ 1: the change does not shrink on refinement (monotone or oscillatory divergence). */
   readonly divergent: boolean;
 }
 
@@ -139,9 +141,11 @@ export function gridConvergenceIndex(values: readonly number[], spacings: readon
   const eext = Math.abs((ext - phi1) / ext);
   const gci = (fs * ea) / (r21p - 1);
   let convergence: GridConvergence['convergence'] = 'assumed';
+  let oscillatory = false;
   if (three) {
     const R = e21 / e32!;
-    convergence = R < 0 ? 'oscillatory' : R >= 1 ? 'divergent' : 'monotone';
+    oscillatory = R < 0;
+    convergence = Math.abs(R) >= 1 ? 'divergent' : oscillatory ? 'oscillatory' : 'monotone';
   }
   return Object.freeze({
     order: p,
@@ -158,7 +162,7 @@ export function gridConvergenceIndex(values: readonly number[], spacings: readon
     gciFine: gci,
     safetyFactor: fs,
     convergence,
-    oscillatory: convergence === 'oscillatory',
+    oscillatory,
     divergent: convergence === 'divergent',
   });
 }

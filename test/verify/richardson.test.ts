@@ -75,11 +75,23 @@ describe('examples computed by hand', () => {
 });
 
 describe('flags and refusals', () => {
-  it('oscillatory (s < 0) and divergent (R ≥ 1) convergence are flagged', () => {
+  it('oscillatory (s < 0) and divergent (|R| ≥ 1) convergence are flagged', () => {
     expect(gridConvergenceIndex([1, 1.1, 0.8], [1, 2, 4]).oscillatory).toBe(true);
     const d = gridConvergenceIndex([1, 1.3, 1.4], [1, 2, 4]);
     expect(d.divergent).toBe(true);
     expect(d.convergence).toBe('divergent');
+  });
+  it('oscillatory divergence (R < −1: the changes flip sign and grow) is flagged as both', () => {
+    // ε21 = 0.5, ε32 = −0.2: R = ε21/ε32 = −2.5, |R| > 1
+    const g = gridConvergenceIndex([1, 1.5, 1.3], [1, 2, 4]);
+    expect(g.oscillatory).toBe(true);
+    expect(g.divergent).toBe(true);
+    expect(g.convergence).toBe('divergent');
+    // ε21 = 0.1, ε32 = −0.3: R = −1/3, oscillatory convergence
+    const c = gridConvergenceIndex([1, 1.1, 0.8], [1, 2, 4]);
+    expect(c.oscillatory).toBe(true);
+    expect(c.divergent).toBe(false);
+    expect(c.convergence).toBe('oscillatory');
   });
   it('refuses equal values, two grids without an order, spacings out of order, too few values', () => {
     expect(codeOf(() => gridConvergenceIndex([1, 1, 2], [1, 2, 4]))).toBe('APPARENT_ORDER_NOT_FOUND');
