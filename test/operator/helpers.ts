@@ -10,6 +10,7 @@
  * Numerical Algorithms, 2nd ed., SIAM, §3.1). Two such sums of the same
  * terms in different orders therefore differ by at most ≈ 2nε·Σ|aᵢ||xᵢ|.
  */
+import { observedOrders as studyOrders } from '../support/solve.js';
 import { expect } from 'vitest';
 import type { CsrMatrix, Grid, Operator } from '../../src/index.js';
 
@@ -91,7 +92,7 @@ export function expectApplyMatchesCsr(
 
 /** log₂(eₕ / e_{h/2}) for successive entries of a refinement sequence. */
 export function observedOrders(errors: readonly number[]): number[] {
-  return errors.slice(1).map((e, i) => Math.log2(errors[i]! / e));
+  return studyOrders(errors);
 }
 
 /**
