@@ -15,6 +15,7 @@ import { CsrBuilder, type CsrMatrix } from './matrix.js';
 import { type LineTable, checkAccuracyOrder, lineTable } from './lines.js';
 import { type Operator, makeOperator } from './operator.js';
 import { compose } from './algebra.js';
+import { laplace5 } from './base/laplace2d.js';
 
 /** What {@link derivative} builds. */
 export interface DerivativeOptions {
@@ -142,7 +143,47 @@ export function laplacian(g: Grid, options: Readonly<LaplacianOptions> = {}): Op
     shape: g.shape,
     symmetric,
     build: () => assembleAxes(g, tables),
+    kernel: p === 2 && g.dimension === 2 && g.axes.every((a) => a.uniform && !a.periodic) ? fivePointKernel(g, tables) : undefined,
   });
+}
+
+/**
+ * Matrix-free Δ on a uniform, non-periodic 2-D grid: the strided 5-point
+ * kernel on the interior, and the boundary rows (one-sided closures) from a
+ * small CSR of those rows only, built on first use.
+ */
+function fivePointKernel(g: Grid, tables: ReadonlyArray<{ d: number; t: LineTable }>): (x: Float64Array, y: Float64Array) => void {
+  const nx = g.shape[0]!;
+  const ny = g.shape[1]!;
+  const cx = 1 / g.dx! ** 2;
+  const cy = 1 / g.dy! ** 2;
+  let rows: Int32Array | undefined;
+  let m: CsrMatrix | undefined;
+  const boundary = (): void => {
+    const list: number[] = [];
+    for (let i = 0; i < nx; i++) for (let j = 0; j < ny; j++) if (i === 0 || j === 0 || i === nx - 1 || j === ny - 1) list.push(i * ny + j);
+    rows = Int32Array.from(list);
+    const b = new CsrBuilder(list.length, g.size, list.length * 8);
+    for (const r of list) {
+      const i = Math.floor(r / ny);
+      const j = r - i * ny;
+      addLineRow(b, tables[0]!.t, r, i, ny, false);
+      addLineRow(b, tables[1]!.t, r, j, 1, false);
+      b.endRow();
+    }
+    m = b.finish();
+  };
+  return (x, y) => {
+    laplace5(nx, ny, cx, cy, -2 * (cx + cy), x, ny, 1, 0, y, ny, 1, 0);
+    if (m === undefined) boundary();
+    const { rowPtr, colIdx, values } = m!;
+    const rs = rows!;
+    for (let q = 0; q < rs.length; q++) {
+      let acc = 0;
+      for (let k = rowPtr[q]!; k < rowPtr[q + 1]!; k++) acc += values[k]! * x[colIdx[k]!]!;
+      y[rs[q]!] = acc;
+    }
+  };
 }
 
 /** What {@link mixedDerivative} builds. */
