@@ -38,11 +38,13 @@ import { type BenchCase, caseName, defaultRuns, note, setDefaultRuns } from './h
 import { type PeerLine, peerSources, runPeers } from './reference/peers.js';
 import { cases as stencilCases } from './stencil/weights.bench.js';
 import { cases as timeCases } from './time/transient.bench.js';
+import { cases as linalgCases } from './linalg/w2.bench.js';
 
 /** The workload groups, in run order: group name → its cases. */
 const registry: Readonly<Record<string, readonly BenchCase[]>> = {
   stencil: stencilCases,
   operator: operatorCases,
+  linalg: linalgCases,
   time: timeCases,
 };
 

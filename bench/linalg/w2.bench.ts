@@ -9,7 +9,9 @@
  * timed body. Each timed run builds the multigrid hierarchy and solves, so
  * `median_s` is set-up + solve (what a caller pays, and what spsolve's time
  * with its factorisation compares with); `setup_s` and `solve_s` are the
- * medians of the two parts. Variants:
+ * medians of the two parts, `warmup_setup_s` the untimed first set-up (for
+ * the first variant of a size: in a fresh process, before the JIT has
+ * compiled the set-up's loops). Variants:
  *
  * - `mg-pcg`: conjugate gradients preconditioned by one V(1,1)-cycle
  *   (a small PCG loop below, on csrMatVec);
@@ -17,7 +19,8 @@
  * - `mg-fmg`: one full-multigrid pass, then V-cycles.
  *
  * `iters` counts CG iterations or cycles; `max_err` is max|u_h − u| over the
- * nodes (O(h²)). Each size is its own case, so in `npm run bench` it runs in
+ * nodes (O(h²)). A full garbage collection runs untimed before every run
+ * (and after the assembly), so `peak_rss_mb` is what one solve holds. Each size is its own case, so in `npm run bench` it runs in
  * its own process and `peak_rss_mb` is that size's alone (assembly
  * included). Run standalone with `npx tsx bench/linalg/w2.bench.ts [sizes…]`,
  * which does the same, one child process per size.
@@ -26,6 +29,8 @@
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
+import v8 from 'node:v8';
+import vm from 'node:vm';
 import { discretize, grid } from '../../src/index.js';
 import { createMultigrid, type Multigrid } from '../../src/linalg/multigrid.js';
 import type { CsrMatrix } from '../../src/operator/matrix.js';
@@ -33,6 +38,22 @@ import { csrMatVec } from '../../src/operator/base/csr.js';
 import { type BenchCase, type BenchContext, median, measure, note, printLine } from '../harness.js';
 
 const TOL = 1e-8;
+
+/**
+ * A full garbage collection, run untimed before each timed run: each run
+ * drops the previous run's hierarchy (~100 MB at n = 1023), and without it
+ * peak RSS would measure how late V8 collects rather than what a solve needs.
+ */
+const collect: () => void = (() => {
+  const exposed = (globalThis as { gc?: () => void }).gc;
+  if (exposed !== undefined) return exposed;
+  try {
+    v8.setFlagsFromString('--expose-gc');
+    return vm.runInNewContext('gc') as () => void;
+  } catch {
+    return () => {};
+  }
+})();
 
 /** An assembled W2 system and the exact solution at its nodes. */
 interface Problem {
@@ -155,10 +176,21 @@ function maxErr(u: Float64Array, exact: Float64Array): number {
 
 type Variant = 'mg-pcg' | 'mg-v' | 'mg-fmg';
 
+/**
+ * The peers' medians on this machine (../shared/peers/RESULTS.md: scipy
+ * spsolve with its factorisation, and unpreconditioned scipy CG on the same
+ * right-hand side, W2x there), by n; their n = 256, 512, 1024 differ from
+ * 255, 511, 1023 by under 1 %.
+ */
+const PEERS: Readonly<Record<number, { spsolve: number; cg: number }>> = {
+  255: { spsolve: 0.517, cg: 0.368 },
+  511: { spsolve: 3.11, cg: 4.08 },
+  1023: { spsolve: 23.7, cg: 39 },
+};
+
 function runOne(id: string, n: number, dim: 2 | 3, variants: readonly Variant[], runs: number): void {
-  let prob: Problem | undefined = build(n, dim);
-  const { g, a, rhs, prescribed, exact } = prob;
-  prob = undefined;
+  const { g, a, rhs, prescribed, exact } = build(n, dim);
+  collect();
   const work = pcgWork(rhs.length);
   for (const variant of variants) {
     const setups: number[] = [];
@@ -187,16 +219,21 @@ function runOne(id: string, n: number, dim: 2 | 3, variants: readonly Variant[],
       setups.push(Number(t1 - t0) / 1e9);
       solves.push(Number(t2 - t1) / 1e9);
       return u;
-    }, { runs, warmup: 1 });
+    }, { runs, warmup: 1, setup: collect });
     if (!(residual <= TOL)) throw new Error(`${id} ${variant} n=${n}: relative residual ${residual} > ${TOL}`);
     // the warm-up run is first in both lists
     printLine({
       id, impl: 'quadrille', variant, path: 'ts', size: { n }, timing,
       figures: {
         iters, max_err: maxErr(u, exact), setup_s: median(setups.slice(1)), solve_s: median(solves.slice(1)),
-        levels: sizes.length,
+        warmup_setup_s: setups[0], levels: sizes.length,
       },
     });
+    const peer = id === 'W2' ? PEERS[n] : undefined;
+    if (peer !== undefined) {
+      note(`${id} ${variant} n=${n}: ${(peer.spsolve / timing.median).toFixed(0)}× scipy spsolve (${peer.spsolve} s), ` +
+        `${(peer.cg / timing.median).toFixed(0)}× scipy CG (${peer.cg} s), set-up included (peers' medians from RESULTS.md)`);
+    }
   }
 }
 

@@ -60,8 +60,10 @@ export interface LevelMatrix {
   readonly dinv: number;
   /** Straight-line kernel size (3, 5, 7, 9, 27), or 0 for the generic stencil loop. */
   readonly kind: number;
-  /** Whether every run row equals the stencil exactly (else to within 16ε·max|w| per entry). */
+  /** Whether every run row equals the stencil exactly (else to within `tol`). */
   readonly exact: boolean;
+  /** Largest difference per entry between a run row and the stencil: the `tolerance` of {@link levelMatrix} times max|w|. */
+  readonly tol: number;
 }
 
 /**
@@ -110,20 +112,21 @@ function matches(a: CsrMatrix, i: number, off: Int32Array, w: Float64Array, m: n
  * Builds the {@link LevelMatrix} of `a`: diagonal (already found) and the
  * runs of rows equal to one shifted stencil. The stencil is taken from a
  * row near the middle (an interior node on a grid); a row matches when its
- * columns are the stencil's and each value is within 16ε·max|w| of the
- * stencil's (a spacing that is not a binary fraction, 1/12 say, gives
- * interior rows that differ in the last bits; the sweeps then use the
+ * columns are the stencil's and each value is within `tolerance`·max|w| of
+ * the stencil's (a spacing that is not a binary fraction, 1/1022 say, gives
+ * interior rows that differ in the last bits — about ε·cells relative, as
+ * the spacings come from differences of coordinates; the sweeps then use the
  * stencil's values, a perturbation of A by a few ulps that changes the
  * smoother, not the problem: the true residual is computed from A itself).
  * Runs are kept only if they cover at least a quarter of the rows, so a
  * variable-coefficient matrix is swept by CSR alone. Cost O(nnz).
  */
-export function levelMatrix(a: CsrMatrix, diagPtr: Int32Array, invDiag: Float64Array, useRuns = true): LevelMatrix {
+export function levelMatrix(a: CsrMatrix, diagPtr: Int32Array, invDiag: Float64Array, tolerance = 16 * Number.EPSILON, useRuns = true): LevelMatrix {
   const n = a.rows;
   const none = {
     n, rowPtr: a.rowPtr, colIdx: a.colIdx, values: a.values, diagPtr, invDiag,
     runCount: 0, runStart: new Int32Array(0), runEnd: new Int32Array(0),
-    offsets: new Int32Array(0), weights: new Float64Array(0), diagonal: 0, dinv: 0, kind: 0, exact: true,
+    offsets: new Int32Array(0), weights: new Float64Array(0), diagonal: 0, dinv: 0, kind: 0, exact: true, tol: 0,
   };
   if (!useRuns || n < 3) return none;
   // candidate reference rows: the middle first, then the quarter points
@@ -142,7 +145,7 @@ export function levelMatrix(a: CsrMatrix, diagPtr: Int32Array, invDiag: Float64A
     if (d < 0) continue;
     let big = 0;
     for (let k = 0; k < m; k++) big = Math.max(big, Math.abs(w[k]));
-    const tol = 16 * Number.EPSILON * big;
+    const tol = tolerance * big;
     const flag = new Uint8Array(n);
     let count = 0;
     let runs = 0;
@@ -169,7 +172,7 @@ export function levelMatrix(a: CsrMatrix, diagPtr: Int32Array, invDiag: Float64A
       && d === (m - 1) / 2 && off[d - 1] === -1 && off[d + 1] === 1;
     return {
       ...none, runCount: runs, runStart, runEnd, offsets: off, weights: w, diagonal: d,
-      dinv: 1 / w[d], kind: straight ? m : 0, exact,
+      dinv: 1 / w[d], kind: straight ? m : 0, exact, tol,
     };
   }
   return none;
@@ -255,17 +258,31 @@ function anyResidual(a: LevelMatrix, s0: number, e0: number, b: Float64Array, x:
 
 // ------------------------------------------------------------- sweeps
 
+/** The first run that ends after row lo (runCount if none): binary search over the run ends. */
+function firstRun(runEnd: Int32Array, count: number, lo: number): number {
+  let a = 0;
+  let b = count;
+  while (a < b) {
+    const m = (a + b) >> 1;
+    if (runEnd[m] <= lo) a = m + 1;
+    else b = m;
+  }
+  return a;
+}
+
 /**
- * One forward Gauss–Seidel sweep over all rows. `zero`: x is taken as 0 on
- * entry (only the entries left of the diagonal are summed, about half the
- * work, and x need not be cleared first).
+ * One forward Gauss–Seidel sweep over rows lo … hi − 1 (default: all).
+ * `zero`: x is taken as 0 from row lo on (only the entries left of the
+ * diagonal are summed, about half the work, and x need not be cleared).
+ * Rows below lo must be final: a sweep in blocks of rows is one sweep.
  */
-export function gaussSeidelForward(a: LevelMatrix, b: Float64Array, x: Float64Array, zero: boolean): void {
+export function gaussSeidelForward(a: LevelMatrix, b: Float64Array, x: Float64Array, zero: boolean, lo = 0, hi = a.n): void {
   const { runCount, runStart, runEnd, offsets: off, weights: w, dinv, kind } = a;
-  let i = 0;
-  for (let q = 0; q < runCount; q++) {
-    const s0 = runStart[q];
-    const e0 = runEnd[q];
+  let i = lo;
+  for (let q = firstRun(runEnd, runCount, lo); q < runCount; q++) {
+    if (runStart[q] >= hi) break;
+    const s0 = runStart[q] > i ? runStart[q] : i;
+    const e0 = runEnd[q] < hi ? runEnd[q] : hi;
     if (zero) csrForwardZero(a, i, s0, b, x);
     else csrForward(a, i, s0, b, x);
     if (zero) {
@@ -289,17 +306,24 @@ export function gaussSeidelForward(a: LevelMatrix, b: Float64Array, x: Float64Ar
     }
     i = e0;
   }
-  if (zero) csrForwardZero(a, i, a.n, b, x);
-  else csrForward(a, i, a.n, b, x);
+  if (zero) csrForwardZero(a, i, hi, b, x);
+  else csrForward(a, i, hi, b, x);
 }
 
-/** One backward Gauss–Seidel sweep over all rows, last row first. */
-export function gaussSeidelBackward(a: LevelMatrix, b: Float64Array, x: Float64Array): void {
+/**
+ * One backward Gauss–Seidel sweep over rows hi − 1 … lo (default: all),
+ * last row first. Rows from hi on must be final.
+ */
+export function gaussSeidelBackward(a: LevelMatrix, b: Float64Array, x: Float64Array, lo = 0, hi = a.n): void {
   const { runCount, runStart, runEnd, offsets: off, weights: w, dinv, kind } = a;
-  let i = a.n;
-  for (let q = runCount - 1; q >= 0; q--) {
-    const s0 = runStart[q];
-    const e0 = runEnd[q];
+  let i = hi;
+  // the last run that starts before hi
+  let q = firstRun(runEnd, runCount, hi - 1);
+  if (q === runCount || runStart[q] >= hi) q--;
+  for (; q >= 0; q--) {
+    if (runEnd[q] <= lo) break;
+    const s0 = runStart[q] > lo ? runStart[q] : lo;
+    const e0 = runEnd[q] < i ? runEnd[q] : i;
     csrBackward(a, e0, i, b, x);
     switch (kind) {
       case 5: backward5(s0, e0, off, w, dinv, b, x); break;
@@ -311,10 +335,10 @@ export function gaussSeidelBackward(a: LevelMatrix, b: Float64Array, x: Float64A
     }
     i = s0;
   }
-  csrBackward(a, 0, i, b, x);
+  csrBackward(a, lo, i, b, x);
 }
 
-/** r = b − A x with A's own values (the CSR rows only, no stencil runs). */
+/** r = b − A x with A's own values: through the stencil runs when they hold A exactly, else through CSR for every row. */
 export function exactResidual(a: LevelMatrix, b: Float64Array, x: Float64Array, r: Float64Array): void {
   if (a.exact) residual(a, b, x, r);
   else csrResidual(a, 0, a.n, b, x, r);
@@ -362,16 +386,18 @@ function anyUpper(a: LevelMatrix, s0: number, e0: number, x: Float64Array, r: Fl
 }
 
 /**
- * r = −U x, U the strictly upper triangle: the residual b − Ax right after
- * one zero-start forward sweep, for which (L + D)x = b holds (to
- * round-off), at half the cost of {@link residual}.
+ * r = −U x over rows lo … hi − 1 (default: all), U the strictly upper
+ * triangle: the residual b − Ax right after one zero-start forward sweep,
+ * for which (L + D)x = b holds (to round-off), at half the cost of
+ * {@link residual}.
  */
-export function upperResidual(a: LevelMatrix, x: Float64Array, r: Float64Array): void {
+export function upperResidual(a: LevelMatrix, x: Float64Array, r: Float64Array, lo = 0, hi = a.n): void {
   const { runCount, runStart, runEnd, offsets: off, weights: w, kind } = a;
-  let i = 0;
-  for (let q = 0; q < runCount; q++) {
-    const s0 = runStart[q];
-    const e0 = runEnd[q];
+  let i = lo;
+  for (let q = firstRun(runEnd, runCount, lo); q < runCount; q++) {
+    if (runStart[q] >= hi) break;
+    const s0 = runStart[q] > i ? runStart[q] : i;
+    const e0 = runEnd[q] < hi ? runEnd[q] : hi;
     csrUpper(a, i, s0, x, r);
     switch (kind) {
       case 5: upper5(s0, e0, off, w, x, r); break;
@@ -383,7 +409,7 @@ export function upperResidual(a: LevelMatrix, x: Float64Array, r: Float64Array):
     }
     i = e0;
   }
-  csrUpper(a, i, a.n, x, r);
+  csrUpper(a, i, hi, x, r);
 }
 
 /** Damped Jacobi from x = 0: x = ω D⁻¹ b. */

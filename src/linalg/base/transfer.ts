@@ -1,98 +1,101 @@
 /**
- * Grid transfers of multigrid, one axis at a time. The interpolation P is
- * the tensor product P_x ⊗ P_y ⊗ P_z of 1-D linear interpolations, so
- * x_f = P x_c is three 1-D passes and b_c = Pᵀ r_f three transposed ones,
- * each over an array seen as (outer, n along the axis, inner): the passes
- * along a slow axis combine whole contiguous lines of length `inner`, the
- * pass along the fastest axis (inner = 1) gathers within each line. About
- * 2 reads and 1 write per fine value in all, against 2.25 CSR entries
- * (12 bytes each) per fine row for P stored as a matrix.
+ * Grid transfers of multigrid, line by line. The interpolation P is the
+ * tensor product of 1-D linear interpolations, one per axis, so x_f = P x_c
+ * splits into lines along the fastest coarsened axis: each fine line is a
+ * weighted sum of (up to 2^(d−1)) coarse lines — the weights of the slower
+ * axes — expanded along the line by the 1-D table of the fastest axis;
+ * restriction b_c = Pᵀ r_f sums (up to 3^(d−1)) fine lines and contracts
+ * the sum along the line. A line buffer of one fine line's length holds the
+ * sums. On a uniform halving (n = 2n_c − 1, weights 1 and ½) the 1-D steps
+ * are straight loops over pairs of nodes; other tables (an odd cell count,
+ * a periodic wrap, stretched weights) go through the table loops.
  *
- * 1-D interpolation tables: fine node f takes w0[f]·coarse c0[f] +
- * w1[f]·coarse c1[f] (single entries padded with c1 = c0, w1 = 0). The
- * transposed tables give each coarse node I its (up to) three fine nodes
- * fa, fb, fc and weights, padded with zero weights. No checks, no
- * allocation. Source: Trottenberg, U., Oosterlee, C. W. & Schüller, A.
- * (2001). Multigrid, Academic Press, §2.3 (transfer operators).
+ * 1-D tables: fine node f takes w0[f]·coarse c0[f] + w1[f]·coarse c1[f]
+ * (single entries padded with c1 = c0, w1 = 0); the transposed tables give
+ * each coarse node I its fine nodes fa, fb, fc with weights, zero-padded.
+ * No checks, no allocation. Source: Trottenberg, U., Oosterlee, C. W. &
+ * Schüller, A. (2001). Multigrid, Academic Press, §2.3.
  *
  * @module
  * @internal
  */
 
-/**
- * One interpolation pass along an axis: dst (outer, n, inner) from src
- * (outer, nc, inner), dst[o, f, t] (+)= w0[f]·src[o, c0[f], t] + w1[f]·src[o, c1[f], t].
- */
-export function interpolateAxis(
-  outer: number, nc: number, n: number, inner: number,
-  c0: Int32Array, w0: Float64Array, c1: Int32Array, w1: Float64Array,
-  src: Float64Array, dst: Float64Array, add: boolean,
+/** buf[t] = Σ_q w[q0 + q]·src[line[q0 + q]·len + t] for q < k, t < len. */
+export function combineLines(
+  k: number, q0: number, line: Int32Array, w: Float64Array, len: number, src: Float64Array, buf: Float64Array,
 ): void {
-  if (inner === 1) {
-    for (let o = 0; o < outer; o++) {
-      const si = o * nc;
-      const di = o * n;
-      if (add) {
-        for (let f = 0; f < n; f++) dst[di + f] += w0[f] * src[si + c0[f]] + w1[f] * src[si + c1[f]];
-      } else {
-        for (let f = 0; f < n; f++) dst[di + f] = w0[f] * src[si + c0[f]] + w1[f] * src[si + c1[f]];
-      }
-    }
-    return;
-  }
-  for (let o = 0; o < outer; o++) {
-    for (let f = 0; f < n; f++) {
-      const a = (o * nc + c0[f]) * inner;
-      const b = (o * nc + c1[f]) * inner;
-      const d = (o * n + f) * inner;
-      const wa = w0[f];
-      const wb = w1[f];
-      if (wb === 0) {
-        if (add) for (let t = 0; t < inner; t++) dst[d + t] += wa * src[a + t];
-        else for (let t = 0; t < inner; t++) dst[d + t] = wa * src[a + t];
-      } else if (add) {
-        for (let t = 0; t < inner; t++) dst[d + t] += wa * src[a + t] + wb * src[b + t];
-      } else {
-        for (let t = 0; t < inner; t++) dst[d + t] = wa * src[a + t] + wb * src[b + t];
-      }
-    }
+  let s = line[q0] * len;
+  let a = w[q0];
+  for (let t = 0; t < len; t++) buf[t] = a * src[s + t];
+  for (let q = 1; q < k; q++) {
+    s = line[q0 + q] * len;
+    a = w[q0 + q];
+    for (let t = 0; t < len; t++) buf[t] += a * src[s + t];
   }
 }
 
 /**
- * One restriction pass along an axis (the transpose of
- * {@link interpolateAxis}): dst (outer, nc, inner) from src (outer, n, inner),
- * dst[o, I, t] = wa[I]·src[o, fa[I], t] + wb[I]·src[o, fb[I], t] + wc[I]·src[o, fc[I], t].
+ * dst[d0 + f] (+)= w0[f]·src[s0 + c0[f]] + w1[f]·src[s0 + c1[f]], f < n.
+ * `uniform`: the table is the halving n = 2·nc − 1 with weights 1 and ½.
  */
-export function restrictAxis(
-  outer: number, n: number, nc: number, inner: number,
-  fa: Int32Array, wa: Float64Array, fb: Int32Array, wb: Float64Array, fc: Int32Array, wc: Float64Array,
-  src: Float64Array, dst: Float64Array,
+export function expandLine(
+  n: number, nc: number, c0: Int32Array, w0: Float64Array, c1: Int32Array, w1: Float64Array, uniform: boolean,
+  src: Float64Array, s0: number, dst: Float64Array, d0: number, add: boolean,
 ): void {
-  if (inner === 1) {
-    for (let o = 0; o < outer; o++) {
-      const si = o * n;
-      const di = o * nc;
-      for (let I = 0; I < nc; I++) {
-        dst[di + I] = wa[I] * src[si + fa[I]] + wb[I] * src[si + fb[I]] + wc[I] * src[si + fc[I]];
+  if (uniform) {
+    let f = d0;
+    let s = s0;
+    const e = s0 + nc - 1;
+    if (add) {
+      for (; s < e; s++) {
+        const a = src[s];
+        dst[f] += a;
+        dst[f + 1] += 0.5 * (a + src[s + 1]);
+        f += 2;
       }
+      dst[f] += src[s];
+    } else {
+      for (; s < e; s++) {
+        const a = src[s];
+        dst[f] = a;
+        dst[f + 1] = 0.5 * (a + src[s + 1]);
+        f += 2;
+      }
+      dst[f] = src[s];
     }
     return;
   }
-  for (let o = 0; o < outer; o++) {
-    for (let I = 0; I < nc; I++) {
-      const a = (o * n + fa[I]) * inner;
-      const b = (o * n + fb[I]) * inner;
-      const c = (o * n + fc[I]) * inner;
-      const d = (o * nc + I) * inner;
-      const x = wa[I];
-      const y = wb[I];
-      const z = wc[I];
-      if (y === 0 && z === 0) {
-        for (let t = 0; t < inner; t++) dst[d + t] = x * src[a + t];
-      } else {
-        for (let t = 0; t < inner; t++) dst[d + t] = x * src[a + t] + y * src[b + t] + z * src[c + t];
-      }
+  if (add) {
+    for (let f = 0; f < n; f++) dst[d0 + f] += w0[f] * src[s0 + c0[f]] + w1[f] * src[s0 + c1[f]];
+  } else {
+    for (let f = 0; f < n; f++) dst[d0 + f] = w0[f] * src[s0 + c0[f]] + w1[f] * src[s0 + c1[f]];
+  }
+}
+
+/**
+ * dst[d0 + I] = wa[I]·src[s0 + fa[I]] + wb[I]·src[s0 + fb[I]] + wc[I]·src[s0 + fc[I]],
+ * I < nc: the transpose of {@link expandLine}. `uniform` as there.
+ */
+export function contractLine(
+  n: number, nc: number, fa: Int32Array, wa: Float64Array, fb: Int32Array, wb: Float64Array, fc: Int32Array, wc: Float64Array,
+  uniform: boolean, src: Float64Array, s0: number, dst: Float64Array, d0: number,
+): void {
+  if (uniform) {
+    if (nc === 1) {
+      dst[d0] = src[s0];
+      return;
     }
+    dst[d0] = src[s0] + 0.5 * src[s0 + 1];
+    let s = s0 + 2;
+    const e = d0 + nc - 1;
+    for (let I = d0 + 1; I < e; I++) {
+      dst[I] = src[s] + 0.5 * (src[s - 1] + src[s + 1]);
+      s += 2;
+    }
+    dst[e] = src[s] + 0.5 * src[s - 1];
+    return;
+  }
+  for (let I = 0; I < nc; I++) {
+    dst[d0 + I] = wa[I] * src[s0 + fa[I]] + wb[I] * src[s0 + fb[I]] + wc[I] * src[s0 + fc[I]];
   }
 }
