@@ -65,8 +65,8 @@
  * Limits. Point smoothers lose grid independence on strongly anisotropic
  * problems (very stretched cells, k much larger along one axis) and slow
  * down across large jumps of k that linear interpolation does not follow
- * (a 100× layer: ~35 cycles alone, ~12 CG iterations); prefer the cycle
- * as a CG preconditioner there. A singular system (flux faces only, or
+ * (a 100× layer: 19 → 43 cycles alone from 64² to 256² cells, 9 → 15 CG
+ * iterations); prefer the cycle as a CG preconditioner there. A singular system (flux faces only, or
  * periodic axes without a value or convection face) fails on the coarsest
  * LU with SingularMatrixError. Gauss–Seidel needs rows it can smooth: the
  * one-sided flux rows of accuracy 4 and 6 make the cycle diverge (reported
@@ -246,9 +246,9 @@ function levelOf(a: CsrMatrix, axes: readonly AxisLevel[], mask: Uint8Array, wha
  * Set-up cost: O(nnz(A)) per level. The triple product computes each
  * coarse row only where the row is not a shifted copy of a regular one
  * (boundary layers, variable coefficients) and copies the rest, so a
- * constant-coefficient problem sets up in a few passes over A: about
- * 0.3 s for W2's 1024² cells here (0.6 s in a fresh process, before the
- * JIT has compiled the loops).
+ * constant-coefficient problem sets up in a few passes over A: 0.2–0.4 s
+ * for W2's 1024² cells here (about 0.6 s for the first call in a fresh
+ * process, before the JIT has compiled the loops), 0.8–1.7 s for 128³.
  *
  * @param g - the grid of the unknowns
  * @param a - the square matrix: an Operator, or a CSR matrix (its structure is checked); not copied, do not change it afterwards
