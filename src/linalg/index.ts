@@ -5,3 +5,4 @@ export {
   jacobiPreconditioner, ssorPreconditioner, incompleteCholesky, incompleteLU, type Preconditioner,
 } from './preconditioners.js';
 export type { SolveResult, IterativeOptions } from './result.js';
+export { createMultigrid, type Multigrid, type MultigridOptions } from './multigrid.js';
