@@ -25,14 +25,14 @@
  *
  * @module
  */
-import { InvalidAccuracyError, InvalidOptionError, ShapeMismatchError } from '../errors.js';
+import { InvalidAccuracyError, InvalidOptionError, NonFiniteValueError, ShapeMismatchError } from '../errors.js';
 import { type FaceName, type Field, type Grid, trapezoidWeights } from '../grid/index.js';
 import { checkField } from '../grid/field.js';
 import { lineTable } from '../operator/lines.js';
 import { laplacian } from '../operator/derivative.js';
 import { gridStrides } from '../operator/derivative.js';
 import {
-  type Coefficient, assembleConservative, controlVolumes, forEachNode, nodeCoordinates, sampleCoefficient,
+  type Coefficient, assembleConservative, controlVolumes, forEachNode, nodeCoordinates, sampleCoefficient, sampleNodal,
 } from '../operator/diffusion.js';
 import { CsrBuilder, type CsrMatrix, csrMultiply } from '../operator/matrix.js';
 import { type Operator, makeOperator } from '../operator/operator.js';
@@ -180,24 +180,11 @@ function faceNodes(g: Grid, bc: BoundaryConditions): FaceNodes[] {
 /** Nodal values of a source at time t. @internal */
 export function sampleSource(g: Grid, f: Source | undefined, t: number, out: Float64Array): Float64Array {
   if (f === undefined) return out.fill(0);
-  if (typeof f === 'number') {
-    if (!Number.isFinite(f)) throw new InvalidOptionError('source', `${f} is not finite`);
-    return out.fill(f);
-  }
-  if (typeof f === 'function') {
-    forEachNode(g, (r, i, j, k) => {
-      out[r] = evalData(f, nodeCoordinates(g, i, j, k), t, 'source');
-    });
-    return out;
-  }
-  checkField(g, f, 'source');
-  const s = f.stride;
-  forEachNode(g, (r, i, j, k) => {
-    const v = f.data[f.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
-    if (!Number.isFinite(v)) throw new InvalidOptionError('source', `node ${r} holds ${v}; give finite values`);
-    out[r] = v;
-  });
-  return out;
+  return sampleNodal(g, f, 'source', (v, kind, where) => {
+    if (Number.isFinite(v)) return;
+    if (kind === 'function') throw new NonFiniteValueError(`source${where}, t = ${t}`, v);
+    throw new InvalidOptionError('source', `${v}${where} is not finite; give finite values`);
+  }, [t], out);
 }
 
 function flat(g: Grid, u: Field | Float64Array): Float64Array {
@@ -206,12 +193,7 @@ function flat(g: Grid, u: Field | Float64Array): Float64Array {
     return u;
   }
   checkField(g, u, 'u');
-  const out = new Float64Array(g.size);
-  const s = u.stride;
-  forEachNode(g, (r, i, j, k) => {
-    out[r] = u.data[u.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
-  });
-  return out;
+  return sampleNodal(g, u, 'u', () => undefined);
 }
 
 /**

@@ -74,6 +74,13 @@ function dot(a: Float64Array, b: Float64Array, n: number): number {
   return s0 + s1;
 }
 
+/** r = b − A x; returns ‖r‖/‖b‖. */
+function trueResidual(op: Operator, b: Float64Array, x: Float64Array, r: Float64Array, n: number, bnorm: number): number {
+  op.kernel(x, r);
+  for (let i = 0; i < n; i++) r[i] = b[i]! - r[i]!;
+  return Math.sqrt(dot(r, r, n)) / bnorm;
+}
+
 function asOperator(a: Operator | CsrMatrix): Operator {
   if ('kernel' in a) return a;
   return makeOperator({ rows: a.rows, cols: a.cols, symmetric: false, build: () => a });
@@ -133,11 +140,7 @@ export function conjugateGradient(a: Operator | CsrMatrix, b: Float64Array, opti
   const { x, history } = buffers(n, maxIt, options, ws);
   const bnorm = Math.sqrt(dot(b, b, n));
   if (bnorm === 0) return { solution: x.fill(0), iterations: 0, residual: 0, history: history.subarray(0, 1), method, seconds: 0 };
-  const residual = (): number => {
-    op.kernel(x, r);
-    for (let i = 0; i < n; i++) r[i] = b[i]! - r[i]!;
-    return Math.sqrt(dot(r, r, n)) / bnorm;
-  };
+  const residual = (): number => trueResidual(op, b, x, r, n, bnorm);
   let rel = residual();
   history[0] = rel;
   let it = 0;
@@ -206,11 +209,7 @@ export function bicgstab(a: Operator | CsrMatrix, b: Float64Array, options: Read
   const { x, history } = buffers(n, maxIt, options, ws);
   const bnorm = Math.sqrt(dot(b, b, n));
   if (bnorm === 0) return { solution: x.fill(0), iterations: 0, residual: 0, history: history.subarray(0, 1), method, seconds: 0 };
-  const residual = (): number => {
-    op.kernel(x, r);
-    for (let i = 0; i < n; i++) r[i] = b[i]! - r[i]!;
-    return Math.sqrt(dot(r, r, n)) / bnorm;
-  };
+  const residual = (): number => trueResidual(op, b, x, r, n, bnorm);
   let rel = residual();
   history[0] = rel;
   let it = 0;

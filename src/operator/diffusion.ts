@@ -52,37 +52,57 @@ export function nodeCoordinates(g: Grid, i: number, j: number, k: number): numbe
   return c;
 }
 
+/** Where a sampled value came from, for error messages. @internal */
+export type SampleKind = 'constant' | 'function' | 'field';
+
+/**
+ * Nodal values of a constant, a function of the node's coordinates (called
+ * with `extra` appended, e.g. the time) or a field on the grid, each passed
+ * to `check`, which throws the caller's own error for a bad value. The one
+ * sampler behind coefficients, sources and initial fields.
+ *
+ * @internal
+ */
+export function sampleNodal(
+  g: Grid, v: number | ((...args: number[]) => number) | Field, what: string,
+  check: (value: number, kind: SampleKind, where: string) => void,
+  extra: readonly number[] = [], out: Float64Array = new Float64Array(g.size),
+): Float64Array {
+  if (typeof v === 'number') {
+    check(v, 'constant', '');
+    return out.fill(v);
+  }
+  if (typeof v === 'function') {
+    forEachNode(g, (r, i, j, k) => {
+      const xs = nodeCoordinates(g, i, j, k);
+      const x = v(...xs, ...extra);
+      check(x, 'function', ` at (${xs.join(', ')})`);
+      out[r] = x;
+    });
+    return out;
+  }
+  if (v === null || typeof v !== 'object') {
+    throw new InvalidOptionError(what, 'give a number, a function of the coordinates, or a field on the grid');
+  }
+  checkField(g, v, what);
+  const s = v.stride;
+  forEachNode(g, (r, i, j, k) => {
+    const x = v.data[v.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
+    check(x, 'field', ` at node (${[i, j, k].slice(0, g.dimension).join(', ')})`);
+    out[r] = x;
+  });
+  return out;
+}
+
 /**
  * Nodal values of a coefficient, checked finite and > 0.
  *
  * @internal
  */
 export function sampleCoefficient(g: Grid, c: Coefficient, what: string): Float64Array {
-  const out = new Float64Array(g.size);
-  if (typeof c === 'number') {
-    if (!(Number.isFinite(c) && c > 0)) throw new InvalidCoefficientError(what, c);
-    return out.fill(c);
-  }
-  if (typeof c === 'function') {
-    forEachNode(g, (r, i, j, k) => {
-      const xs = nodeCoordinates(g, i, j, k);
-      const v = c(...xs);
-      if (!(Number.isFinite(v) && v > 0)) throw new InvalidCoefficientError(`${what} at (${xs.join(', ')})`, v);
-      out[r] = v;
-    });
-    return out;
-  }
-  if (c === null || typeof c !== 'object') {
-    throw new InvalidOptionError(what, 'give a number, a function of the coordinates, or a field on the grid');
-  }
-  checkField(g, c, what);
-  const s = c.stride;
-  forEachNode(g, (r, i, j, k) => {
-    const v = c.data[c.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
-    if (!(Number.isFinite(v) && v > 0)) throw new InvalidCoefficientError(`${what} at node (${[i, j, k].slice(0, g.dimension).join(', ')})`, v);
-    out[r] = v;
+  return sampleNodal(g, c, what, (v, _kind, where) => {
+    if (!(Number.isFinite(v) && v > 0)) throw new InvalidCoefficientError(`${what}${where}`, v);
   });
-  return out;
 }
 
 /** Control volume of every node: the product of the axes' trapezoidal weights. @internal */

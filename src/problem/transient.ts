@@ -18,9 +18,8 @@ import ndarray from 'ndarray';
 import { type BoundaryConditions, type BoundarySpec, type Discretization, type Source, discretize } from '../boundary/index.js';
 import { InvalidOptionError, ShapeMismatchError, StepTooLargeError } from '../errors.js';
 import type { Field, Grid } from '../grid/index.js';
-import { checkField } from '../grid/field.js';
 import type { Coefficient } from '../operator/index.js';
-import { forEachNode, nodeCoordinates, sampleCoefficient } from '../operator/diffusion.js';
+import { sampleCoefficient, sampleNodal } from '../operator/diffusion.js';
 import { createThetaStepper } from '../time/diffusion.js';
 import type { StepSolver } from '../time/implicit.js';
 import { type Checkpoint, type RunOptions, type RunResult, runStepper, stepPlan } from '../time/run.js';
@@ -84,27 +83,9 @@ export interface TransientResult extends RunResult {
 }
 
 function sampleInitial(g: Grid, v: Initial, what: string): Float64Array {
-  const out = new Float64Array(g.size);
-  if (typeof v === 'number') {
-    if (!Number.isFinite(v)) throw new InvalidOptionError(what, `${v} is not finite`);
-    return out.fill(v);
-  }
-  if (typeof v === 'function') {
-    forEachNode(g, (r, i, j, k) => {
-      const x = v(...nodeCoordinates(g, i, j, k));
-      if (!Number.isFinite(x)) throw new InvalidOptionError(what, `the function gives ${x} at node ${r}`);
-      out[r] = x;
-    });
-    return out;
-  }
-  checkField(g, v, what);
-  const s = v.stride;
-  forEachNode(g, (r, i, j, k) => {
-    const x = v.data[v.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
-    if (!Number.isFinite(x)) throw new InvalidOptionError(what, `node ${r} holds ${x}`);
-    out[r] = x;
+  return sampleNodal(g, v, what, (x, _kind, where) => {
+    if (!Number.isFinite(x)) throw new InvalidOptionError(what, `${x}${where} is not finite; give finite values`);
   });
-  return out;
 }
 
 function usesFunctions(bc: BoundaryConditions, source: Source | undefined): boolean {
