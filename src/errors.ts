@@ -580,3 +580,98 @@ export class ZeroDiagonalError extends QuadrilleError {
     );
   }
 }
+
+/** Values to be written to a file that are NaN or ±Infinity, which the output formats cannot carry. */
+export class NonFiniteOutputError extends QuadrilleError {
+  /** Always `'NON_FINITE_OUTPUT'`. */
+  readonly code = 'NON_FINITE_OUTPUT';
+  /**
+   * @param what - the data being written, e.g. `field "T"` or `matrix values`
+   * @param count - how many values are not finite
+   * @param index - index of the first, x first for a field (node [i, j, k]) or flat for an array
+   * @param value - the first such value
+   * @param where - the first position in words, with its coordinates where they apply
+   * @param hint - the fix that applies to this output
+   */
+  constructor(
+    readonly what: string,
+    readonly count: number,
+    readonly index: readonly number[],
+    readonly value: number,
+    where: string,
+    hint = 'find where the non-finite values come from (a blow-up, 0/0 in a derived quantity) and write finite data',
+  ) {
+    super(`${what} holds ${count} non-finite value(s); the first is ${value} at ${where}; ${hint}`);
+  }
+}
+
+/** A file that could not be written: the OS refused (missing directory, permissions, a directory at the path) or the content failed. */
+export class WriteFailedError extends QuadrilleError {
+  /** Always `'WRITE_FAILED'`. */
+  readonly code = 'WRITE_FAILED';
+  /**
+   * @param path - the file that was to be written
+   * @param reason - the OS error code (`ENOENT`, `EACCES`, `EISDIR`, …) or `'ERROR'` when there is none
+   * @param detail - the underlying error's message
+   * @param cause - the underlying error
+   */
+  constructor(readonly path: string, readonly reason: string, detail: string, override readonly cause?: unknown) {
+    super(
+      `could not write ${path}: ${detail.includes(reason) ? detail : `${reason}: ${detail}`}; nothing was left at the path or beside it ` +
+        '(check that the directory exists and is writable — createDirectories: true makes it — and that no directory sits at the path)',
+    );
+  }
+}
+
+/** Matrix Market text that breaks the format: bad banner or size line, bad or missing entries, indices out of range. */
+export class MalformedMatrixMarketError extends QuadrilleError {
+  /** Always `'MALFORMED_MATRIX_MARKET'`. */
+  readonly code = 'MALFORMED_MATRIX_MARKET';
+  /**
+   * @param line - 1-based line number of the fault (one past the last line when the text ends too early)
+   * @param why - what is wrong there and what the format wants
+   */
+  constructor(readonly line: number, why: string) {
+    super(`Matrix Market line ${line}: ${why}`);
+  }
+}
+
+/** Well-formed Matrix Market text of a kind quadrille does not read (complex, pattern, hermitian, dense matrices). */
+export class UnsupportedMatrixMarketError extends QuadrilleError {
+  /** Always `'UNSUPPORTED_MATRIX_MARKET'`. */
+  readonly code = 'UNSUPPORTED_MATRIX_MARKET';
+  /**
+   * @param line - 1-based line number of the banner or size line that declares it
+   * @param what - the kind declared, and what is read instead
+   */
+  constructor(readonly line: number, what: string) {
+    super(`Matrix Market line ${line}: ${what}`);
+  }
+}
+
+/** CSV text that is not a field table as written by quadrille: bad header, ragged rows, non-numbers, nodes out of order. */
+export class MalformedCsvError extends QuadrilleError {
+  /** Always `'MALFORMED_CSV'`. */
+  readonly code = 'MALFORMED_CSV';
+  /**
+   * @param line - 1-based line number of the fault (the header is line 1)
+   * @param why - what is wrong there and what is expected
+   */
+  constructor(readonly line: number, why: string) {
+    super(`CSV line ${line}: ${why}`);
+  }
+}
+
+/** JSON text that is not valid JSON, or not the documented form of the document it should be. */
+export class MalformedJsonError extends QuadrilleError {
+  /** Always `'MALFORMED_JSON'`. */
+  readonly code = 'MALFORMED_JSON';
+  /**
+   * @param document - the document expected, e.g. `checkpoint`
+   * @param path - where in it the fault is, e.g. `state[1][4]` (`$` for the whole text)
+   * @param why - what is wrong there and what is expected
+   */
+  constructor(readonly document: string, readonly path: string, why: string) {
+    super(`${document} JSON at ${path}: ${why}`);
+  }
+}

@@ -11,4 +11,5 @@ export * from './linalg/index.js';
 export * from './time/index.js';
 export * from './problem/index.js';
 export * from './verify/index.js';
+export * from './io/index.js';
 export * from './errors.js';

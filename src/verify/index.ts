@@ -13,7 +13,7 @@ export {
   type ConvergenceStudy, type Refinement, type StudyLevel, type StudyOptions, type LevelOutcome, type LevelSolution,
   type LevelErrors, type LevelResult, type LevelPair, type OrderFit, type NormName, type QuantityPair,
 } from './study.js';
-export { studyTable, studyCsv, studyPlot, type PlotOptions } from './report.js';
+export { studyTable, studyCsv } from './report.js';
 export { apparentOrder, richardsonExtrapolation, type ApparentOrder, type RichardsonResult } from './richardson.js';
 export { gridConvergenceIndex, representativeSpacing, type GridConvergence, type GciOptions } from './gci.js';
 export {

@@ -3,9 +3,9 @@
  * time and in both, the rendered table, CSV and SVG, and refusals.
  */
 import { describe, expect, it } from 'vitest';
-import { grid } from '../../src/index.js';
+import { grid, studyPlot } from '../../src/index.js';
 import {
-  convergenceStudy, errorNorms, sineDecay, spacingsFor, studyCsv, studyPlot, studyTable,
+  convergenceStudy, errorNorms, sineDecay, spacingsFor, studyCsv, studyTable,
 } from '../../src/verify/index.js';
 import { expectAsymptotic, expectOrder } from '../../src/testing.js';
 import { codeOf, errorOf } from '../support/errors.js';
