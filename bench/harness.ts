@@ -117,17 +117,8 @@ export function peakRssMb(): number {
   return process.resourceUsage().maxRSS / 1024;
 }
 
-/** mulberry32: a 32-bit seeded PRNG; returns uniform numbers in [0, 1). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The seeded PRNG the tests use (mulberry32), shared so benchmarks draw the same streams. */
+export { mulberry32 } from '../test/support/prng.js';
 
 /** A figure: integers as they are, others to 4 significant digits. */
 export function formatValue(v: number | string): string {

@@ -428,23 +428,6 @@ export class BlowUpError extends QuadrilleError {
   }
 }
 
-/** A matrix row whose diagonal entry is not positive, where a relaxation method needs aᵢᵢ > 0. */
-export class NonPositiveDiagonalError extends QuadrilleError {
-  /** Always `'NON_POSITIVE_DIAGONAL'`. */
-  readonly code = 'NON_POSITIVE_DIAGONAL';
-  /**
-   * @param row - the first row at fault
-   * @param value - its diagonal entry (0 if none is stored)
-   * @param what - the method that needs a positive diagonal
-   */
-  constructor(readonly row: number, readonly value: number, what: string) {
-    super(
-      `row ${row} has diagonal entry ${value}; ${what} needs a positive diagonal in every row, as the ` +
-        'symmetric positive definite system of −∇·(k∇u) has (pass system().matrix, not the operator ∇·(k∇u) itself)',
-    );
-  }
-}
-
 /** A convergence study or extrapolation given fewer levels than it needs. */
 export class TooFewLevelsError extends QuadrilleError {
   /** Always `'TOO_FEW_LEVELS'`. */

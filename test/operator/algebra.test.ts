@@ -17,7 +17,7 @@ import {
   type CsrMatrix, type Grid, type Operator, compose, csrIsSymmetric, derivative, diagonal, fromCsr, geometricAxis, grid,
   identity, kronecker, laplacian, scale, sum, tanhAxis, transpose,
 } from '../../src/index.js';
-import { SEED, csrApply, eps, expectApplyMatchesCsr, expectCode, maxRowNnz, mulberry32, randomVector, toDense } from './helpers.js';
+import { SEED, csrApply, csrFromDense, eps, expectApplyMatchesCsr, expectCode, maxRowNnz, mulberry32, randomVector, toDense } from './helpers.js';
 
 const rng = mulberry32(SEED + 20);
 
@@ -55,19 +55,7 @@ function randomSym(n: number): Operator {
 }
 
 function fromDense(d: number[][], symmetric = false): Operator {
-  const ptr = [0];
-  const ci: number[] = [];
-  const v: number[] = [];
-  for (const row of d) {
-    row.forEach((x, c) => {
-      if (x !== 0) {
-        ci.push(c);
-        v.push(x);
-      }
-    });
-    ptr.push(ci.length);
-  }
-  return fromCsr({ rows: d.length, cols: d[0]!.length, rowPtr: Int32Array.from(ptr), colIdx: Int32Array.from(ci), values: Float64Array.from(v) }, { symmetric });
+  return fromCsr(csrFromDense(d), { symmetric });
 }
 
 /** |A|·|x|. */

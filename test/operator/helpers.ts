@@ -44,6 +44,23 @@ export function maxRowNnz(m: CsrMatrix): number {
   return w;
 }
 
+/** A CSR matrix from a dense array, zeros left out (`cols` for a matrix with no rows). */
+export function csrFromDense(d: number[][], cols = d[0]?.length ?? 0): CsrMatrix {
+  const ptr = [0];
+  const ci: number[] = [];
+  const v: number[] = [];
+  for (const row of d) {
+    row.forEach((x, c) => {
+      if (x !== 0) {
+        ci.push(c);
+        v.push(x);
+      }
+    });
+    ptr.push(ci.length);
+  }
+  return { rows: d.length, cols, rowPtr: Int32Array.from(ptr), colIdx: Int32Array.from(ci), values: Float64Array.from(v) };
+}
+
 /** Dense copy of a small CSR matrix, for independent checks. */
 export function toDense(m: CsrMatrix): number[][] {
   const d = Array.from({ length: m.rows }, () => new Array<number>(m.cols).fill(0));

@@ -12,30 +12,14 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { type CsrMatrix, csrIsSymmetric, csrTranspose, fromCsr } from '../../src/index.js';
 import { CsrBuilder, checkCsr } from '../../src/operator/matrix.js';
-import { SEED, csrApply, eps, expectCode, mulberry32, toDense } from './helpers.js';
+import { SEED, csrApply, csrFromDense, eps, expectCode, mulberry32, toDense } from './helpers.js';
 
 const rng = mulberry32(SEED + 10);
 
-/** A CSR matrix from a dense array, zeros left out. */
-function fromDense(d: number[][], cols = d[0]?.length ?? 0): CsrMatrix {
-  const ptr = [0];
-  const ci: number[] = [];
-  const v: number[] = [];
-  for (const row of d) {
-    row.forEach((x, c) => {
-      if (x !== 0) {
-        ci.push(c);
-        v.push(x);
-      }
-    });
-    ptr.push(ci.length);
-  }
-  return { rows: d.length, cols, rowPtr: Int32Array.from(ptr), colIdx: Int32Array.from(ci), values: Float64Array.from(v) };
-}
 
 /** A random sparse rows × cols matrix with about `fill` of its entries stored (some rows empty). */
 function randomCsr(rows: number, cols: number, fill: number, r: () => number = rng): CsrMatrix {
-  return fromDense(Array.from({ length: rows }, () => Array.from({ length: cols }, () => (r() < fill ? 2 * r() - 1 : 0))), cols);
+  return csrFromDense(Array.from({ length: rows }, () => Array.from({ length: cols }, () => (r() < fill ? 2 * r() - 1 : 0))), cols);
 }
 
 /** Columns of every row strictly ascending and in range, lengths consistent (restated, not checkCsr). */
@@ -203,7 +187,7 @@ describe('csrIsSymmetric', () => {
       }
     }
     d[0]![0] = 4; // max |a| = 4 for the tolerance cases
-    return fromDense(d);
+    return csrFromDense(d);
   };
 
   it('exact: a symmetric matrix passes, a one-ulp change fails', () => {
@@ -223,12 +207,12 @@ describe('csrIsSymmetric', () => {
       }
     }
     expect(done).toBe(true);
-    expect(csrIsSymmetric(fromDense(d))).toBe(false);
+    expect(csrIsSymmetric(csrFromDense(d))).toBe(false);
   });
 
   it('with tolerance: |aᵢⱼ − aⱼᵢ| ≤ tol·max|a| passes, above it fails', () => {
     // a₀₁ = 1, a₁₀ = 1 + 2⁻²⁰, max |a| = 4: the gap 2⁻²⁰ is 2⁻²² of max|a| (all exact binary numbers)
-    const a = fromDense([[4, 1, 0], [1 + 2 ** -20, 2, 0], [0, 0, 3]]);
+    const a = csrFromDense([[4, 1, 0], [1 + 2 ** -20, 2, 0], [0, 0, 3]]);
     expect(csrIsSymmetric(a)).toBe(false);
     expect(csrIsSymmetric(a, 2 ** -22)).toBe(true);
     expect(csrIsSymmetric(a, 2 ** -23)).toBe(false);
@@ -246,7 +230,7 @@ describe('csrIsSymmetric', () => {
 
   it('non-square → false; NaN entries → false whatever the tolerance', () => {
     expect(csrIsSymmetric(randomCsr(3, 4, 0.5))).toBe(false);
-    const a = fromDense([[1, NaN], [NaN, 1]]);
+    const a = csrFromDense([[1, NaN], [NaN, 1]]);
     expect(csrIsSymmetric(a, 1)).toBe(false);
   });
 });
@@ -309,10 +293,10 @@ describe('fromCsr', () => {
   });
 
   it('symmetric: true is checked exactly: a false claim → NOT_SYMMETRIC, a true one is kept', () => {
-    const ns = fromDense([[2, 1], [1 + 2 ** -52, 2]]);
+    const ns = csrFromDense([[2, 1], [1 + 2 ** -52, 2]]);
     expectCode(() => fromCsr(ns, { symmetric: true }), 'NOT_SYMMETRIC');
     expect(fromCsr(ns).symmetric).toBe(false);
-    const s = fromDense([[2, 1], [1, 2]]);
+    const s = csrFromDense([[2, 1], [1, 2]]);
     expect(fromCsr(s, { symmetric: true }).symmetric).toBe(true);
     // symmetric is a declaration, never inferred
     expect(fromCsr(s).symmetric).toBe(false);

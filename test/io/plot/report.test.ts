@@ -87,7 +87,7 @@ describe('htmlReport', () => {
   it('refusals', () => {
     expect(codeOf(() => htmlReport({ title: 3 as never, sections: [] }))).toBe('INVALID_OPTION');
     expect(codeOf(() => htmlReport({ title: 't', sections: [{ heading: 'h', blocks: [{ kind: 'figure', svg: '<div/>' }] }] }))).toBe('INVALID_OPTION');
-    expect(codeOf(() => htmlReport({ title: 't', sections: [{ heading: 'h', blocks: [{ kind: 'video' } as never] }] }))).toBe('INVALID_OPTION');
+    expect(codeOf(() => htmlReport({ title: 't', sections: [{ heading: 'h', blocks: [{ kind: 'spreadsheet' } as never] }] }))).toBe('INVALID_OPTION');
     expect(codeOf(() => htmlReport({ title: 't', sections: [{ heading: 'h', blocks: [{ kind: 'table', header: ['a', 'b'], rows: [[1]] }] }] }))).toBe('SHAPE_MISMATCH');
     expect(codeOf(() => htmlReport({ title: 't', sections: [{ heading: 'h', blocks: [{ kind: 'markdown', text: '| a | b |\n|---|---|\n| 1 |' }] }] }))).toBe('SHAPE_MISMATCH');
   });
