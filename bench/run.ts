@@ -185,6 +185,7 @@ const ratioRules: ReadonlyArray<readonly [string, string, string, string, string
   ['W1b matrix-free vs quadrille naive-ndarray', 'W1b', 'quadrille', 'naive-ndarray', 'matrix-free'],
   ['W1 csr vs scipy csr (A @ x)', 'W1', 'scipy', 'csr', 'csr'],
   ['W1 csr vs scipy csr-prealloc', 'W1', 'scipy', 'csr-prealloc', 'csr'],
+  ['W1 csr-plain (no inspection) vs scipy csr (A @ x)', 'W1', 'scipy', 'csr', 'csr-plain'],
   ['W1 csr vs quadrille matrix-free (> 1: matrix-free faster)', 'W1', 'quadrille', 'csr', 'matrix-free'],
   ['W2 assemble-csr (allocation included) vs scipy kron to CSR', 'W2', 'scipy', 'assembly-kron-csr', 'assemble-csr'],
   ['W2 assemble-csr (allocation included) vs scipy kron to CSC', 'W2', 'scipy', 'assembly-kron-csc', 'assemble-csr'],

@@ -403,11 +403,12 @@ export class StepTooLargeError extends QuadrilleError {
    * @param dt - the step asked for (s)
    * @param dtMax - the largest stable step (s)
    * @param scheme - the explicit scheme
+   * @param why - optional: which bound binds and a further fix, e.g. the advective limit and upwind differencing
    */
-  constructor(readonly dt: number, readonly dtMax: number, readonly scheme: string) {
+  constructor(readonly dt: number, readonly dtMax: number, readonly scheme: string, why?: string) {
     super(
-      `dt = ${dt} s exceeds the ${scheme} stability limit ${dtMax.toPrecision(6)} s; use dt ≤ ${dtMax.toPrecision(6)} s ` +
-        'or an implicit scheme (backward-euler, crank-nicolson), or set stabilityGuard: false for an experiment',
+      `dt = ${dt} s exceeds the ${scheme} stability limit ${dtMax.toPrecision(6)} s${why === undefined ? '' : ` (${why})`}; ` +
+        `use dt ≤ ${dtMax.toPrecision(6)} s or an implicit scheme (backward-euler, crank-nicolson), or set stabilityGuard: false for an experiment`,
     );
   }
 }

@@ -13,7 +13,7 @@
  */
 import ndarray, { type NdArray } from 'ndarray';
 import { NonFiniteValueError, NotSymmetricError, ShapeMismatchError } from '../errors.js';
-import { type CsrMatrix, checkCsr, csrIsSymmetric, csrMultiply } from './matrix.js';
+import { type CsrMatrix, checkCsr, csrIsSymmetric, csrKernel } from './matrix.js';
 
 /** A vector of unknowns: a plain Float64Array, or an ndarray field over one. */
 export type Vector = Float64Array | NdArray<Float64Array>;
@@ -28,7 +28,14 @@ export interface Operator {
   readonly shape: readonly number[];
   /** Whether A = Aᵀ exactly, as constructed (not a numerical test). */
   readonly symmetric: boolean;
-  /** The explicit CSR form, assembled on first use and then kept. */
+  /**
+   * The explicit CSR form, assembled on first use and then kept. Read it,
+   * never write it: an operator without a matrix-free kernel multiplies
+   * through these very arrays, and from its second product on through the
+   * stencil runs found in them once (rows that are one stencil shifted),
+   * which would not see a later change. Copy it to modify, and make a new
+   * operator with `fromCsr`.
+   */
   readonly matrix: CsrMatrix;
   /**
    * y = A x. `u` has `cols` entries (an ndarray is read in memory order of
@@ -130,7 +137,8 @@ export function makeOperator(parts: OperatorParts): Operator {
   const shape = Object.freeze([...(parts.shape ?? [rows])]);
   let csr: CsrMatrix | undefined;
   const matrixOf = (): CsrMatrix => (csr ??= build());
-  const kernel = parts.kernel ?? ((x: Float64Array, y: Float64Array) => void csrMultiply(matrixOf(), x, y));
+  let product: ((x: Float64Array, y: Float64Array) => Float64Array) | undefined;
+  const kernel = parts.kernel ?? ((x: Float64Array, y: Float64Array) => void (product ??= csrKernel(matrixOf()))(x, y));
   const op: Operator = {
     rows,
     cols,

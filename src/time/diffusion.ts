@@ -16,6 +16,10 @@
  * Crank, J. & Nicolson, P. (1947), Proc. Camb. Phil. Soc. 43, 50–67;
  * LeVeque (2007), ch. 9; Strikwerda (2004), §6.3.
  *
+ * With advection, ρc(∂u/∂t + b·∇u) = ∇·(k∇u) + f, the balance rows use
+ * S − VMB in place of S, B the advection operator b·∇ (central or upwind);
+ * constraint rows are unchanged. The step matrix is then nonsymmetric.
+ *
  * Start-up: Crank–Nicolson damps the highest grid modes only weakly (its
  * amplification tends to −1), so after a discontinuous start (a thermal
  * shock) they oscillate from step to step. Rannacher, R. (1984), Numer.
@@ -25,7 +29,7 @@
  * @module
  */
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
-import { CsrBuilder, type CsrMatrix, csrMultiply } from '../operator/matrix.js';
+import { CsrBuilder, type CsrMatrix, csrKernel } from '../operator/matrix.js';
 import { factorTridiagonal } from '../linalg/thomas.js';
 import { fusedTridiagonalStep } from './base/tridiagonal-step.js';
 import { type PreparedSolve, type StepSolver, prepareSolve } from './implicit.js';
@@ -39,12 +43,36 @@ export interface DiffusionParts {
   readonly source: Source | undefined;
   /** Whether boundary data or source depend on time (are functions). */
   readonly timeDependent: boolean;
+  /** B = b·∇ at every node (module doc), or undefined without advection. */
+  readonly advection?: CsrMatrix;
+}
+
+/** S, or S − VMB on the balance rows with advection (module doc). */
+function stepOperator(p: DiffusionParts): CsrMatrix {
+  const s = p.d.scaledOperator.matrix;
+  const a = p.advection;
+  if (a === undefined) return s;
+  const n = s.rows;
+  const V = p.d.volumes;
+  const cons = p.d.constrained;
+  const m = new CsrBuilder(n, n, s.values.length + a.values.length);
+  for (let r = 0; r < n; r++) {
+    for (let q = s.rowPtr[r]!; q < s.rowPtr[r + 1]!; q++) m.add(s.colIdx[q]!, s.values[q]!);
+    if (!cons[r]) {
+      const w = V[r]! * p.capacity[r]!;
+      for (let q = a.rowPtr[r]!; q < a.rowPtr[r + 1]!; q++) m.add(a.colIdx[q]!, -w * a.values[q]!);
+    }
+    m.endRow();
+  }
+  return m.finish();
 }
 
 interface ThetaLevel {
   theta: number;
   dt: number;
   e: CsrMatrix;
+  /** rhs = E u, through E's stencil runs from the second step on. */
+  multiplyE: (x: Float64Array, y: Float64Array) => Float64Array;
   k: CsrMatrix;
   solve: PreparedSolve;
   /** Prescribed columns removed from K: (row, col, K_rc). */
@@ -72,9 +100,8 @@ function diagonalsOf(m: CsrMatrix): [Float64Array, Float64Array, Float64Array] |
   return [s, d, u];
 }
 
-function buildLevel(p: DiffusionParts, theta: number, dt: number, solver: StepSolver, tolerance: number): ThetaLevel {
+function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, solver: StepSolver, tolerance: number): ThetaLevel {
   const { d, capacity } = p;
-  const s = d.scaledOperator.matrix;
   const n = s.rows;
   const V = d.volumes;
   const pres = d.prescribed;
@@ -121,7 +148,7 @@ function buildLevel(p: DiffusionParts, theta: number, dt: number, solver: StepSo
     k.endRow();
   }
   const km = k.finish();
-  const symmetric = d.symmetric;
+  const symmetric = d.symmetric && p.advection === undefined;
   // forward Euler: K is diagonal unless flux conditions are constraint rows (accuracy 4, 6)
   let choice = solver;
   if (theta === 0 && solver === 'auto') {
@@ -141,7 +168,7 @@ function buildLevel(p: DiffusionParts, theta: number, dt: number, solver: StepSo
     }
   }
   return {
-    theta, dt, e: em, k: km, solve, fused,
+    theta, dt, e: em, multiplyE: csrKernel(em), k: km, solve, fused,
     elimRow: Int32Array.from(er), elimCol: Int32Array.from(ec), elimVal: Float64Array.from(ev),
   };
 }
@@ -167,11 +194,12 @@ export function createThetaStepper(
   const fNow = new Float64Array(n);
   const fNext = new Float64Array(n);
   const levels = new Map<string, ThetaLevel>();
+  const s = stepOperator(p);
   const level = (th: number, h: number): ThetaLevel => {
     const key = `${th}:${h}`;
     let l = levels.get(key);
     if (l === undefined) {
-      l = buildLevel(p, th, h, options.solver, options.tolerance);
+      l = buildLevel(p, s, th, h, options.solver, options.tolerance);
       levels.set(key, l);
     }
     return l;
@@ -224,7 +252,7 @@ export function createThetaStepper(
       iterations = 0;
       return;
     }
-    csrMultiply(l.e, u, rhs);
+    l.multiplyE(u, rhs);
     for (let i = 0; i < n; i++) rhs[i]! += data[i]!;
     // warm start at the prescribed values of tⁿ⁺¹
     for (let i = 0; i < n; i++) if (pres[i]) u[i] = gNext[i]!;

@@ -6,7 +6,8 @@
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
  *   V-cycle on uniform grids (IC(0) on stretched ones), warm-started from
  *   the previous level.
- * - nonsymmetric: BiCGSTAB with ILU(0), warm-started.
+ * - nonsymmetric 2-D / 3-D (advection, accuracy 4 and 6 closures):
+ *   BiCGSTAB with ILU(0), warm-started.
  *
  * @module
  */
@@ -51,7 +52,7 @@ export function prepareSolve(
   let method = options.solver;
   if (method === 'auto') method = g.dimension === 1 ? 'direct' : symmetric ? 'cg' : 'bicgstab';
   if (method === 'cg' && !symmetric) {
-    throw new InvalidOptionError('solver', 'conjugate gradients need a symmetric step matrix; accuracy 4 and 6 closures are not symmetric, use bicgstab');
+    throw new InvalidOptionError('solver', 'conjugate gradients need a symmetric step matrix; advection and the accuracy 4 and 6 closures make it nonsymmetric, use bicgstab or direct');
   }
   if (method === 'direct') {
     if (tridiagonal(k)) {

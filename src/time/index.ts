@@ -1,4 +1,4 @@
-export { stabilityLimit, type StabilityLimit } from './stability.js';
+export { stabilityLimit, type StabilityLimit, type AdvectiveLimit } from './stability.js';
 export {
   checkpointToBytes, checkpointFromBytes,
   type Checkpoint, type RunOptions, type RunResult, type Progress, type StepView, type ProbeSeries, type Snapshot,

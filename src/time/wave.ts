@@ -21,7 +21,7 @@
  * @module
  */
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
-import { CsrBuilder, type CsrMatrix, csrMultiply } from '../operator/matrix.js';
+import { CsrBuilder, type CsrMatrix, csrKernel } from '../operator/matrix.js';
 import { leapfrog5 } from './base/leapfrog5.js';
 import { prepareSolve, type PreparedSolve } from './implicit.js';
 import type { Stepper } from './stepper.js';
@@ -72,7 +72,7 @@ export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float6
   const { d, damping: gamma } = p;
   const n = u0.length;
   const cons = d.constrained;
-  const a = d.operator.matrix;
+  const multiply = csrKernel(d.operator.matrix);
   const u = u0;
   const prev = new Float64Array(n);
   const next = new Float64Array(n);
@@ -114,7 +114,7 @@ export function createLeapfrogStepper(p: WaveParts, u0: Float64Array, v0: Float6
         d.boundaryTerm(t + dt, gNext);
         sampleSource(d.grid, p.source, t, f);
       }
-      csrMultiply(a, u, au);
+      multiply(u, au);
       if (step === 0) {
         // Taylor start from the initial velocity
         for (let i = 0; i < n; i++) {
