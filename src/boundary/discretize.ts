@@ -182,8 +182,8 @@ export function sampleSource(g: Grid, f: Source | undefined, t: number, out: Flo
   if (f === undefined) return out.fill(0);
   return sampleNodal(g, f, 'source', (v, kind, where) => {
     if (Number.isFinite(v)) return;
-    if (kind === 'function') throw new NonFiniteValueError(`source${where}, t = ${t}`, v);
-    throw new InvalidOptionError('source', `${v}${where} is not finite; give finite values`);
+    if (kind === 'function') throw new NonFiniteValueError(`source${where()}, t = ${t}`, v);
+    throw new InvalidOptionError('source', `${v}${where()} is not finite; give finite values`);
   }, [t], out);
 }
 

@@ -59,26 +59,48 @@ export type SampleKind = 'constant' | 'function' | 'field';
  * Nodal values of a constant, a function of the node's coordinates (called
  * with `extra` appended, e.g. the time) or a field on the grid, each passed
  * to `check`, which throws the caller's own error for a bad value. The one
- * sampler behind coefficients, sources and initial fields.
+ * sampler behind coefficients, sources and initial fields. `check` is
+ * called for every value that is not finite and positive (those pass every
+ * check), with the place as a function, so that a message is built only
+ * when it is needed.
  *
  * @internal
  */
 export function sampleNodal(
   g: Grid, v: number | ((...args: number[]) => number) | Field, what: string,
-  check: (value: number, kind: SampleKind, where: string) => void,
+  check: (value: number, kind: SampleKind, where: () => string) => void,
   extra: readonly number[] = [], out: Float64Array = new Float64Array(g.size),
 ): Float64Array {
   if (typeof v === 'number') {
-    check(v, 'constant', '');
+    check(v, 'constant', () => '');
     return out.fill(v);
   }
+  const [nx, ny = 1, nz = 1] = g.shape as readonly number[];
+  const d = g.dimension;
   if (typeof v === 'function') {
-    forEachNode(g, (r, i, j, k) => {
-      const xs = nodeCoordinates(g, i, j, k);
-      const x = v(...xs, ...extra);
-      check(x, 'function', ` at (${xs.join(', ')})`);
-      out[r] = x;
-    });
+    // a plain loop with the coordinates as arguments: no array or string per node (the message is built only on failure)
+    const cx = g.axes[0]!.coordinates;
+    const cy = d > 1 ? g.axes[1]!.coordinates : cx;
+    const cz = d > 2 ? g.axes[2]!.coordinates : cx;
+    const e = extra.length;
+    const t = e > 0 ? extra[0]! : 0;
+    let r = 0;
+    for (let i = 0; i < nx; i++) {
+      for (let j = 0; j < ny; j++) {
+        for (let k = 0; k < nz; k++, r++) {
+          let x: number;
+          if (e > 1) x = v(...nodeCoordinates(g, i, j, k), ...extra);
+          else if (d === 1) x = e === 0 ? v(cx[i]!) : v(cx[i]!, t);
+          else if (d === 2) x = e === 0 ? v(cx[i]!, cy[j]!) : v(cx[i]!, cy[j]!, t);
+          else x = e === 0 ? v(cx[i]!, cy[j]!, cz[k]!) : v(cx[i]!, cy[j]!, cz[k]!, t);
+          if (!Number.isFinite(x) || x <= 0) {
+            const at = nodeCoordinates(g, i, j, k);
+            check(x, 'function', () => ` at (${at.join(', ')})`);
+          }
+          out[r] = x;
+        }
+      }
+    }
     return out;
   }
   if (v === null || typeof v !== 'object') {
@@ -86,11 +108,20 @@ export function sampleNodal(
   }
   checkField(g, v, what);
   const s = v.stride;
-  forEachNode(g, (r, i, j, k) => {
-    const x = v.data[v.offset + i * s[0]! + (g.dimension > 1 ? j * s[1]! : 0) + (g.dimension > 2 ? k * s[2]! : 0)]!;
-    check(x, 'field', ` at node (${[i, j, k].slice(0, g.dimension).join(', ')})`);
-    out[r] = x;
-  });
+  const s0 = s[0]!;
+  const s1 = d > 1 ? s[1]! : 0;
+  const s2 = d > 2 ? s[2]! : 0;
+  const data = v.data;
+  let r = 0;
+  for (let i = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      for (let k = 0; k < nz; k++, r++) {
+        const x = data[v.offset + i * s0 + j * s1 + k * s2]!;
+        if (!Number.isFinite(x) || x <= 0) check(x, 'field', () => ` at node (${[i, j, k].slice(0, d).join(', ')})`);
+        out[r] = x;
+      }
+    }
+  }
   return out;
 }
 
@@ -101,7 +132,7 @@ export function sampleNodal(
  */
 export function sampleCoefficient(g: Grid, c: Coefficient, what: string): Float64Array {
   return sampleNodal(g, c, what, (v, _kind, where) => {
-    if (!(Number.isFinite(v) && v > 0)) throw new InvalidCoefficientError(`${what}${where}`, v);
+    if (!(Number.isFinite(v) && v > 0)) throw new InvalidCoefficientError(`${what}${where()}`, v);
   });
 }
 

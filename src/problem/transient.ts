@@ -129,7 +129,7 @@ export interface TransientResult extends RunResult {
 
 function sampleInitial(g: Grid, v: Initial, what: string): Float64Array {
   return sampleNodal(g, v, what, (x, _kind, where) => {
-    if (!Number.isFinite(x)) throw new InvalidOptionError(what, `${x}${where} is not finite; give finite values`);
+    if (!Number.isFinite(x)) throw new InvalidOptionError(what, `${x}${where()} is not finite; give finite values`);
   });
 }
 
