@@ -98,14 +98,19 @@ export class CsrBuilder {
     this.rowStart = w;
   }
 
-  /** The finished matrix; every row must have been closed. */
+  /**
+   * The finished matrix; every row must have been closed. Storage at least
+   * 7/8 full is handed over as views (no copy, so assembly peaks at its
+   * arrays plus at most 1/7 of them); emptier storage is trimmed by a copy.
+   */
   finish(): CsrMatrix {
+    const full = 8 * this.nnz >= 7 * this.col.length;
     return {
       rows: this.rows,
       cols: this.cols,
       rowPtr: this.ptr,
-      colIdx: this.col.slice(0, this.nnz),
-      values: this.val.slice(0, this.nnz),
+      colIdx: full ? this.col.subarray(0, this.nnz) : this.col.slice(0, this.nnz),
+      values: full ? this.val.subarray(0, this.nnz) : this.val.slice(0, this.nnz),
     };
   }
 }
