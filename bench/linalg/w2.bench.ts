@@ -34,6 +34,7 @@ import v8 from 'node:v8';
 import vm from 'node:vm';
 import { discretize, grid } from '../../src/index.js';
 import { createMultigrid, type Multigrid } from '../../src/linalg/multigrid.js';
+import { createSineTransformSolver, sineStencil } from '../../src/linalg/sine-transform.js';
 import type { CsrMatrix } from '../../src/operator/matrix.js';
 import { csrKernel } from '../../src/operator/matrix.js';
 import { type BenchCase, type BenchContext, median, measure, note, printLine } from '../harness.js';
@@ -175,7 +176,7 @@ function maxErr(u: Float64Array, exact: Float64Array): number {
   return e;
 }
 
-type Variant = 'mg-pcg' | 'mg-v' | 'mg-fmg';
+type Variant = 'mg-pcg' | 'mg-v' | 'mg-fmg' | 'sine-transform';
 
 /**
  * The peers' medians on this machine (../shared/peers/RESULTS.md: scipy
@@ -203,6 +204,18 @@ function runOne(id: string, n: number, dim: 2 | 3, variants: readonly Variant[],
     let u = work.x;
     const { timing } = measure(() => {
       const t0 = process.hrtime.bigint();
+      if (variant === 'sine-transform') {
+        const st = createSineTransformSolver(g.shape, a, sineStencil(g.shape, a, prescribed)!, TOL);
+        const t1 = process.hrtime.bigint();
+        const r = st.solve(rhs, work.x);
+        iters = r.solves;
+        residual = r.residual;
+        u = work.x;
+        const t2 = process.hrtime.bigint();
+        setups.push(Number(t1 - t0) / 1e9);
+        solves.push(Number(t2 - t1) / 1e9);
+        return u;
+      }
       const mg = createMultigrid(g, a, { prescribed });
       const t1 = process.hrtime.bigint();
       sizes = mg.sizes;
@@ -251,7 +264,7 @@ export const W2_3D_SIZES: readonly number[] = [127];
  * n ≥ 1023 to keep the case under a minute.
  */
 export function runW2(ctx: Readonly<BenchContext>, sizes: readonly number[] = W2_SIZES): void {
-  for (const n of sizes) runOne('W2', n, 2, ['mg-pcg', 'mg-v', 'mg-fmg'], n >= 1023 ? 5 : ctx.runs);
+  for (const n of sizes) runOne('W2', n, 2, ['mg-pcg', 'mg-v', 'mg-fmg', 'sine-transform'], n >= 1023 ? 5 : ctx.runs);
 }
 
 /** Runs W2-3D (n = 127 by default) in this process: `mg-pcg` and `mg-v`, 5 timed runs. */

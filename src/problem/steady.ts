@@ -5,6 +5,10 @@
  * Default solver, chosen from the problem:
  * - 1-D: a direct solve (Thomas when the system is tridiagonal, banded LU
  *   otherwise);
+ * - 2-D with constant coefficients, a prescribed value on every edge and a
+ *   power-of-2 number of cells on each axis (accuracy 2): the sine-transform
+ *   direct solver (Hockney 1965), O(N log N), refined against the matrix to
+ *   the tolerance;
  * - symmetric systems (accuracy 2) on uniform 2-D / 3-D grids: conjugate
  *   gradients preconditioned by one multigrid V-cycle;
  * - symmetric systems on stretched grids: conjugate gradients with IC(0);
@@ -35,11 +39,17 @@ import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, jacobiPreconditioner, ssorPreconditioner, type Preconditioner } from '../linalg/preconditioners.js';
 import type { SolveResult } from '../linalg/result.js';
 import { factorTridiagonal, solveTridiagonal } from '../linalg/thomas.js';
+import { createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
 
 /** A solver named by method alone: chosen from the problem, or a direct solve. */
 export interface SimpleSolver {
-  /** 'auto' (module doc) or 'direct' (Thomas or banded LU). */
-  readonly method: 'auto' | 'direct';
+  /**
+   * 'auto' (module doc), 'direct' (Thomas or banded LU) or 'sine-transform'
+   * (the fast direct solver of constant-coefficient 2-D plates with a value
+   * on every edge and a power-of-2 cell count per axis; see
+   * `sine-transform.ts`).
+   */
+  readonly method: 'auto' | 'direct' | 'sine-transform';
 }
 
 /** Preconditioned conjugate gradients (symmetric systems). */
@@ -204,8 +214,14 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
   const choice = options.solver ?? { method: 'auto' };
   const uniform = g.axes.every((a) => a.uniform);
   let method: SteadySolver = choice;
+  const sine = g.dimension === 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
+    ? sineStencil(g.shape, system.matrix.matrix, prescribed) : undefined;
+  if (choice.method === 'sine-transform' && sine === undefined) {
+    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on each axis, a value on every edge, constant conductivity and accuracy 2; use auto or cg');
+  }
   if (choice.method === 'auto') {
     if (g.dimension === 1) method = { method: 'direct' };
+    else if (sine !== undefined) method = { method: 'sine-transform' };
     else if (d.symmetric) method = { method: 'cg', preconditioner: uniform ? 'multigrid' : 'ic0' };
     else method = { method: 'bicgstab', preconditioner: 'ilu0' };
   }
@@ -256,6 +272,17 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
       run = () => bicgstab(system.matrix, system.rhs, { ...iterative, preconditioner: M });
       break;
     }
+    case 'sine-transform': {
+      const st = createSineTransformSolver(g.shape, system.matrix.matrix, sine!, tol);
+      setupEnd = now();
+      run = () => {
+        const t = now();
+        const x = new Float64Array(system.rhs.length);
+        const r = st.solve(system.rhs, x);
+        return { solution: x, iterations: r.solves, residual: r.residual, history: r.history, method: 'sine-transform', seconds: now() - t };
+      };
+      break;
+    }
     case 'multigrid': {
       const mg = createMultigrid(g, system.matrix, { prescribed, cycle: method.cycle });
       setupEnd = now();
@@ -266,7 +293,7 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
       throw new InvalidOptionError('solver', 'internal: auto was not resolved');
     default: {
       const unreachable: never = method;
-      throw new InvalidOptionError('solver', `${JSON.stringify((unreachable as { method?: unknown }).method)} is not a method; use auto, direct, cg, bicgstab or multigrid`);
+      throw new InvalidOptionError('solver', `${JSON.stringify((unreachable as { method?: unknown }).method)} is not a method; use auto, direct, sine-transform, cg, bicgstab or multigrid`);
     }
   }
   const result = run();

@@ -31,7 +31,7 @@
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
 import { CsrBuilder, type CsrMatrix, csrKernel } from '../operator/matrix.js';
 import { factorTridiagonal } from '../linalg/thomas.js';
-import { fusedTridiagonalStep } from './base/tridiagonal-step.js';
+import { fusedTridiagonalStep, planTwistedStep, type TwistedPlan, twistedTridiagonalStep } from './base/tridiagonal-step.js';
 import { type PreparedSolve, type StepSolver, prepareSolve } from './implicit.js';
 import type { Stepper } from './stepper.js';
 
@@ -81,6 +81,12 @@ interface ThetaLevel {
   elimVal: Float64Array;
   /** 1-D fast path: E's diagonals and K's Thomas factors, when both are tridiagonal. */
   fused?: { es: Float64Array; ed: Float64Array; eu: Float64Array; a: Float64Array; inv: Float64Array; ratio: Float64Array };
+  /**
+   * The same step by the twisted factorisation (two recurrences at once,
+   * interleaved coefficients), unless one of its pivots vanishes; then
+   * `fused` is used.
+   */
+  twisted?: TwistedPlan;
 }
 
 function diagonalsOf(m: CsrMatrix): [Float64Array, Float64Array, Float64Array] | undefined {
@@ -159,16 +165,19 @@ function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, 
   const solve = prepareSolve(d.grid, km, symmetric, pres as Uint8Array, { solver: choice, tolerance });
   const em = e.finish();
   let fused: ThetaLevel['fused'];
+  let twisted: TwistedPlan | undefined;
   if (solve.name === 'thomas') {
     const ed = diagonalsOf(em);
     const kd = diagonalsOf(km);
     if (ed !== undefined && kd !== undefined) {
+      // the plain factorisation first: its pivot check reports a singular K
       const f = factorTridiagonal(kd[0], kd[1], kd[2]);
       fused = { es: ed[0], ed: ed[1], eu: ed[2], a: f.sub as Float64Array, inv: f.inversePivots as Float64Array, ratio: f.ratios as Float64Array };
+      twisted = planTwistedStep(ed[0], ed[1], ed[2], kd[0], kd[1], kd[2]);
     }
   }
   return {
-    theta, dt, e: em, multiplyE: csrKernel(em), k: km, solve, fused,
+    theta, dt, e: em, multiplyE: csrKernel(em), k: km, solve, fused, twisted,
     elimRow: Int32Array.from(er), elimCol: Int32Array.from(ec), elimVal: Float64Array.from(ev),
   };
 }
@@ -233,7 +242,10 @@ export function createThetaStepper(
     }
   };
   const constB = new Map<ThetaLevel, Float64Array>();
-  const one = (l: ThetaLevel, t: number): void => {
+  // whether the constant data part of a level is all zero (then the twisted step skips it)
+  const constZero = new Map<ThetaLevel, boolean>();
+  /** One step at level l; returns Σu when the twisted step computed it (the driver's blow-up check), else undefined. */
+  const one = (l: ThetaLevel, t: number): number | undefined => {
     let data: Float64Array = b;
     if (constant) {
       let c = constB.get(l);
@@ -246,17 +258,32 @@ export function createThetaStepper(
     } else {
       dataPart(l, t, b);
     }
+    if (l.twisted !== undefined) {
+      let zero = false;
+      if (constant) {
+        let z = constZero.get(l);
+        if (z === undefined) {
+          z = data.every((v) => v === 0);
+          constZero.set(l, z);
+        }
+        zero = z;
+      }
+      const sum = twistedTridiagonalStep(l.twisted, data, zero, u);
+      iterations = 0;
+      return sum;
+    }
     if (l.fused !== undefined) {
       const f = l.fused;
       fusedTridiagonalStep(n, f.es, f.ed, f.eu, data, f.a, f.inv, f.ratio, u);
       iterations = 0;
-      return;
+      return undefined;
     }
     l.multiplyE(u, rhs);
     for (let i = 0; i < n; i++) rhs[i]! += data[i]!;
     // warm start at the prescribed values of tⁿ⁺¹
     for (let i = 0; i < n; i++) if (pres[i]) u[i] = gNext[i]!;
     iterations = l.solve.solve(rhs, u);
+    return undefined;
   };
   return {
     scheme: theta === 0 ? 'forward-euler' : theta === 1 ? 'backward-euler' : theta === 0.5 ? 'crank-nicolson' : `theta(${theta})`,
@@ -265,7 +292,7 @@ export function createThetaStepper(
     get lastIterations() {
       return iterations;
     },
-    advance(t: number, step: number): void {
+    advance(t: number, step: number): number | void {
       if (step < options.rannacherSteps && theta !== 1) {
         const half = level(1, dt / 2);
         one(half, t);
@@ -273,7 +300,7 @@ export function createThetaStepper(
         one(half, t + dt / 2);
         iterations += first;
       } else {
-        one(main, t);
+        return one(main, t);
       }
     },
   };

@@ -3,6 +3,9 @@
  *
  * - 1-D, tridiagonal: Thomas algorithm, factored once.
  * - 1-D otherwise: banded LU, factored once.
+ * - 2-D, constant coefficients, a value on every edge, power-of-2 cell
+ *   counts (accuracy 2, no advection): the sine-transform direct solver,
+ *   refined against the matrix to the tolerance (`sine-transform.ts`).
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
  *   V-cycle on uniform grids (IC(0) on stretched ones), warm-started from
  *   the previous level.
@@ -18,11 +21,16 @@ import { bicgstab, conjugateGradient, createKrylovWorkspace } from '../linalg/kr
 import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, type Preconditioner } from '../linalg/preconditioners.js';
 import { thomasSolve, factorTridiagonal } from '../linalg/thomas.js';
+import { createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
 import type { CsrMatrix } from '../operator/matrix.js';
 import { makeOperator } from '../operator/operator.js';
 
-/** Which solver an implicit step uses. */
-export type StepSolver = 'auto' | 'direct' | 'cg' | 'bicgstab';
+/**
+ * Which solver an implicit step uses: 'auto' (module doc), 'direct',
+ * 'sine-transform' (constant-coefficient 2-D plates with a value on every
+ * edge and power-of-2 cell counts), 'cg' or 'bicgstab'.
+ */
+export type StepSolver = 'auto' | 'direct' | 'sine-transform' | 'cg' | 'bicgstab';
 
 /** A prepared solve K x = b. @internal */
 export interface PreparedSolve {
@@ -50,7 +58,18 @@ export function prepareSolve(
 ): PreparedSolve {
   const n = k.rows;
   let method = options.solver;
-  if (method === 'auto') method = g.dimension === 1 ? 'direct' : symmetric ? 'cg' : 'bicgstab';
+  const sine = (method === 'auto' || method === 'sine-transform') && symmetric && g.dimension === 2 && g.axes.every((a) => a.uniform)
+    ? sineStencil(g.shape, k, prescribed) : undefined;
+  if (method === 'sine-transform') {
+    if (sine === undefined) {
+      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on each axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
+    }
+  }
+  if (method === 'auto') method = g.dimension === 1 ? 'direct' : sine !== undefined ? 'sine-transform' : symmetric ? 'cg' : 'bicgstab';
+  if (method === 'sine-transform') {
+    const st = createSineTransformSolver(g.shape, k, sine!, options.tolerance);
+    return { name: 'sine-transform', solve: (b, x) => st.solve(b, x).solves };
+  }
   if (method === 'cg' && !symmetric) {
     throw new InvalidOptionError('solver', 'conjugate gradients need a symmetric step matrix; advection and the accuracy 4 and 6 closures make it nonsymmetric, use bicgstab or direct');
   }

@@ -1,0 +1,195 @@
+import { describe, expect, it } from 'vitest';
+import { mulberry32 } from '../support/prng.js';
+import { dst2, dstPlan, fft, fftPlan } from '../../src/linalg/base/fft.js';
+import { createSineTransformSolver, sineStencil } from '../../src/linalg/sine-transform.js';
+import { discretize, grid, solveSteady, solveTransient } from '../../src/index.js';
+import type { CsrMatrix } from '../../src/operator/matrix.js';
+
+const EPS = Number.EPSILON;
+const allValue = (v: number | ((...c: number[]) => number) = 0) =>
+  [{ faces: ['xmin', 'xmax', 'ymin', 'ymax'] as const, kind: 'dirichlet' as const, value: v }];
+
+function random(n: number, seed: number): Float64Array {
+  const r = mulberry32(seed);
+  return Float64Array.from({ length: n }, () => 2 * r() - 1);
+}
+
+function residual(a: CsrMatrix, x: Float64Array, b: Float64Array): number {
+  let rr = 0;
+  let bb = 0;
+  for (let i = 0; i < a.rows; i++) {
+    let s = 0;
+    for (let p = a.rowPtr[i]!; p < a.rowPtr[i + 1]!; p++) s += a.values[p]! * x[a.colIdx[p]!]!;
+    rr += (b[i]! - s) ** 2;
+    bb += b[i]! ** 2;
+  }
+  return Math.sqrt(rr / bb);
+}
+
+describe('fft and dst2 against their defining sums', () => {
+  it('fft equals Σ z_j e^{−2πijk/M} for M = 2 … 256 (error ≲ ε·log₂M·‖z‖, common practice for Cooley–Tukey)', () => {
+    for (let m = 2; m <= 256; m *= 2) {
+      const re = random(m, m);
+      const im = random(m, m + 1);
+      const wr = new Float64Array(m);
+      const wi = new Float64Array(m);
+      for (let k = 0; k < m; k++) {
+        for (let j = 0; j < m; j++) {
+          const t = (-2 * Math.PI * j * k) / m;
+          wr[k] += re[j]! * Math.cos(t) - im[j]! * Math.sin(t);
+          wi[k] += re[j]! * Math.sin(t) + im[j]! * Math.cos(t);
+        }
+      }
+      fft(fftPlan(m), re, im);
+      let err = 0;
+      for (let k = 0; k < m; k++) err = Math.max(err, Math.abs(re[k]! - wr[k]!), Math.abs(im[k]! - wi[k]!));
+      // the direct sums carry about m·ε·‖z‖∞ themselves
+      expect(err).toBeLessThan(8 * m * EPS * Math.sqrt(m));
+    }
+  });
+
+  it('dst2 gives S_k = Σ x_j sin(πjk/N) for both sequences, N = 2 … 128, in place and strided', () => {
+    for (let n = 2; n <= 128; n *= 2) {
+      const count = n - 1;
+      const x = random(count, 3 * n);
+      const y = random(count, 3 * n + 1);
+      const want = (v: Float64Array, k: number): number => {
+        let s = 0;
+        for (let j = 1; j < n; j++) s += v[j - 1]! * Math.sin((Math.PI * j * k) / n);
+        return s;
+      };
+      // x at stride 3 from offset 2, y contiguous
+      const u = new Float64Array(2 + 3 * count).fill(99);
+      for (let j = 0; j < count; j++) u[2 + 3 * j] = x[j]!;
+      const v = Float64Array.from(y);
+      dst2(dstPlan(n), new Float64Array(n), new Float64Array(n), u, 2, 3, v, 0, 1);
+      for (let k = 1; k < n; k++) {
+        expect(Math.abs(u[2 + 3 * (k - 1)]! - want(x, k))).toBeLessThan(16 * n * EPS);
+        expect(Math.abs(v[k - 1]! - want(y, k))).toBeLessThan(16 * n * EPS);
+      }
+      // the entries between the strided ones are untouched
+      expect(u[0]).toBe(99);
+      expect(u[3]).toBe(99);
+      // applied twice it is (N/2)·identity
+      dst2(dstPlan(n), new Float64Array(n), new Float64Array(n), v, 0, 1, u, 2, 3);
+      for (let j = 0; j < count; j++) expect(Math.abs((2 / n) * v[j]! - y[j]!)).toBeLessThan(16 * n * EPS);
+    }
+  });
+});
+
+describe('sineStencil: which matrices the transform solves', () => {
+  it('accepts the constant-k plate with a value on every edge, unequal spacings, and reads its stencil', () => {
+    const g = grid({ x: { from: 0, to: 1, cells: 16 }, y: { from: 0, to: 3, cells: 8 } });
+    const d = discretize(g, { conductivity: 2.5, boundary: allValue(1) });
+    const s = sineStencil(g.shape, d.system({}).matrix.matrix, Uint8Array.from(d.prescribed));
+    expect(s).toBeDefined();
+    // volume-scaled rows (V = dx·dy): w_x = −k·dy/dx, w_y = −k·dx/dy, d = −2(w_x + w_y)
+    const dx = 1 / 16;
+    const dy = 3 / 8;
+    expect(s!.wx).toBeCloseTo(-2.5 * dy / dx, 12);
+    expect(s!.wy).toBeCloseTo(-2.5 * dx / dy, 12);
+    expect(s!.d).toBeCloseTo(-2 * (s!.wx + s!.wy), 12);
+  });
+
+  it('refuses cell counts that are not powers of 2, a flux or convection edge, variable k, 3-D and accuracy 4', () => {
+    const check = (g: ReturnType<typeof grid>, opts: Parameters<typeof discretize>[1]) => {
+      const d = discretize(g, opts);
+      return sineStencil(g.shape, d.system({}).matrix.matrix, Uint8Array.from(d.prescribed));
+    };
+    const sq = (cells: number) => grid({ x: { from: 0, to: 1, cells }, y: { from: 0, to: 1, cells } });
+    expect(check(sq(12), { boundary: allValue() })).toBeUndefined();
+    expect(check(sq(16), {
+      boundary: [{ faces: ['xmin', 'xmax', 'ymin'], kind: 'dirichlet', value: 0 }, { faces: ['ymax'], kind: 'neumann', flux: 1 }],
+    })).toBeUndefined();
+    expect(check(sq(16), {
+      boundary: [{ faces: ['xmin', 'xmax', 'ymin'], kind: 'dirichlet', value: 0 }, { faces: ['ymax'], kind: 'robin', h: 10, ambient: 0 }],
+    })).toBeUndefined();
+    expect(check(sq(16), { conductivity: (x: number) => 1 + x, boundary: allValue() })).toBeUndefined();
+    expect(check(sq(16), { accuracy: 4, boundary: allValue() })).toBeUndefined();
+    const g3 = grid({ x: { from: 0, to: 1, cells: 4 }, y: { from: 0, to: 1, cells: 4 }, z: { from: 0, to: 1, cells: 4 } });
+    const d3 = discretize(g3, { boundary: [{ faces: ['xmin', 'xmax', 'ymin', 'ymax', 'zmin', 'zmax'], kind: 'dirichlet', value: 0 }] });
+    expect(sineStencil(g3.shape, d3.system({}).matrix.matrix, Uint8Array.from(d3.prescribed))).toBeUndefined();
+  });
+});
+
+describe('the sine-transform solve', () => {
+  it('square plate, one edge at 1 and three at 0: the centre is exactly 1/4 (superposition of the four rotated problems, a fact of the trade that holds for the discrete 5-point problem too)', () => {
+    for (const cells of [2, 4, 8, 16, 32, 64, 128]) {
+      const g = grid({ x: { from: 0, to: 1, cells }, y: { from: 0, to: 1, cells } });
+      const r = solveSteady({
+        grid: g,
+        boundary: [{ faces: ['xmin'], kind: 'dirichlet', value: 1 }, { faces: ['xmax', 'ymin', 'ymax'], kind: 'dirichlet', value: 0 }],
+      }, { tolerance: 1e-14 });
+      expect(r.solver).toBe('sine-transform');
+      const c = cells / 2;
+      const centre = r.field.get(c, c);
+      expect(Math.abs(centre - 0.25)).toBeLessThan(16 * EPS * cells * cells);
+    }
+  });
+
+  it('agrees with multigrid-preconditioned CG on a manufactured source with non-binary spacings (refinement reaches the tolerance)', () => {
+    const g = grid({ x: { from: 0, to: 0.3, cells: 64 }, y: { from: -0.7, to: 0.1, cells: 32 } });
+    const problem = {
+      grid: g,
+      conductivity: 3,
+      source: (x: number, y: number) => Math.exp(x - y) * Math.cos(7 * x * y),
+      boundary: allValue((x: number, y: number) => x * x - y),
+    };
+    const a = solveSteady(problem, { tolerance: 1e-13 });
+    const b = solveSteady(problem, { tolerance: 1e-13, solver: { method: 'cg', preconditioner: 'multigrid' } });
+    expect(a.solver).toBe('sine-transform');
+    expect(a.residual).toBeLessThanOrEqual(1e-13);
+    let diff = 0;
+    let big = 0;
+    for (let i = 0; i < g.size; i++) {
+      diff = Math.max(diff, Math.abs(a.field.data[i]! - b.field.data[i]!));
+      big = Math.max(big, Math.abs(b.field.data[i]!));
+    }
+    expect(diff / big).toBeLessThan(1e-10);
+    // the heat balance closes as for any solver of the conservative system
+    expect(a.heatBalance!.relative).toBeLessThan(1e-9);
+  });
+
+  it('solves to the requested relative residual against the matrix itself, and refines when the stencil differs in the last bits', () => {
+    const g = grid({ x: { from: 0, to: 0.7, cells: 32 }, y: { from: 0, to: 1.3, cells: 64 } });
+    const d = discretize(g, { conductivity: 0.9, boundary: allValue() });
+    const sys = d.system({ source: 1 });
+    const a = sys.matrix.matrix;
+    const s = sineStencil(g.shape, a, Uint8Array.from(d.prescribed))!;
+    const b = random(a.rows, 17);
+    for (let i = 0; i < a.rows; i++) if (d.prescribed[i]) b[i] = 0;
+    const solver = createSineTransformSolver(g.shape, a, s, 1e-14);
+    const x = new Float64Array(a.rows);
+    const out = solver.solve(b, x);
+    expect(out.residual).toBeLessThanOrEqual(1e-14);
+    expect(residual(a, x, b)).toBeLessThanOrEqual(1e-14);
+    expect(out.history[0]).toBe(1);
+    // a stencil that is off by 1e-9 relative is corrected by refinement steps
+    const off = createSineTransformSolver(g.shape, a, { d: s.d * (1 + 1e-9), wx: s.wx, wy: s.wy }, 1e-12);
+    const r = off.solve(b, x);
+    expect(r.solves).toBeGreaterThan(1);
+    expect(residual(a, x, b)).toBeLessThanOrEqual(1e-12);
+    // and one that is far off fails loudly instead of returning a wrong answer
+    const bad = createSineTransformSolver(g.shape, a, { d: s.d * 3, wx: s.wx, wy: s.wy }, 1e-12);
+    expect(() => bad.solve(b, x)).toThrow(expect.objectContaining({ code: 'NOT_CONVERGED' }));
+  });
+
+  it('is chosen for Crank–Nicolson steps of a constant-coefficient plate and matches the CG steps', () => {
+    const g = grid({ x: { from: 0, to: 1, cells: 32 }, y: { from: 0, to: 1, cells: 32 } });
+    const problem = { grid: g, initial: (x: number, y: number) => 16 * x * (1 - x) * y * (1 - y), boundary: allValue() };
+    const opts = { scheme: 'crank-nicolson' as const, dt: 1e-3, endTime: 0.02, tolerance: 1e-12 };
+    const a = solveTransient(problem, opts);
+    const b = solveTransient(problem, { ...opts, solver: 'cg' });
+    let diff = 0;
+    for (let i = 0; i < g.size; i++) diff = Math.max(diff, Math.abs(a.field.data[i]! - b.field.data[i]!));
+    expect(diff).toBeLessThan(1e-10);
+    expect(() => solveTransient({ ...problem, conductivity: (x: number) => 1 + x }, { ...opts, solver: 'sine-transform' }))
+      .toThrow(expect.objectContaining({ code: 'INVALID_OPTION' }));
+  });
+
+  it('solveSteady with solver sine-transform on a plate it cannot solve explains why', () => {
+    const g = grid({ x: { from: 0, to: 1, cells: 10 }, y: { from: 0, to: 1, cells: 16 } });
+    expect(() => solveSteady({ grid: g, boundary: allValue() }, { solver: { method: 'sine-transform' } }))
+      .toThrow(/power-of-2 number of cells/);
+  });
+});
