@@ -204,33 +204,27 @@ function runOne(id: string, n: number, dim: 2 | 3, variants: readonly Variant[],
     let u = work.x;
     const { timing } = measure(() => {
       const t0 = process.hrtime.bigint();
+      // set-up, then the solve it returns
+      let solve: () => { iterations: number; residual: number; solution: Float64Array };
       if (variant === 'sine-transform') {
         const st = createSineTransformSolver(g.shape, a, sineStencil(g.shape, a, prescribed)!, TOL);
-        const t1 = process.hrtime.bigint();
-        const r = st.solve(rhs, work.x);
-        iters = r.solves;
-        residual = r.residual;
-        u = work.x;
-        const t2 = process.hrtime.bigint();
-        setups.push(Number(t1 - t0) / 1e9);
-        solves.push(Number(t2 - t1) / 1e9);
-        return u;
-      }
-      const mg = createMultigrid(g, a, { prescribed });
-      const t1 = process.hrtime.bigint();
-      sizes = mg.sizes;
-      if (variant === 'mg-pcg') {
-        const r = pcg(multiply, rhs, mg, TOL, work);
-        iters = r.iterations;
-        residual = r.residual;
-        u = work.x;
+        solve = () => {
+          const r = st.solve(rhs, work.x);
+          return { iterations: r.solves, residual: r.residual, solution: work.x };
+        };
       } else {
-        const r = mg.solve(rhs, { tolerance: TOL, fullMultigrid: variant === 'mg-fmg' });
-        iters = r.iterations;
-        residual = r.residual;
-        u = r.solution;
+        const mg = createMultigrid(g, a, { prescribed });
+        sizes = mg.sizes;
+        solve = variant === 'mg-pcg'
+          ? () => ({ ...pcg(multiply, rhs, mg, TOL, work), solution: work.x })
+          : () => mg.solve(rhs, { tolerance: TOL, fullMultigrid: variant === 'mg-fmg' });
       }
+      const t1 = process.hrtime.bigint();
+      const r = solve();
       const t2 = process.hrtime.bigint();
+      iters = r.iterations;
+      residual = r.residual;
+      u = r.solution;
       setups.push(Number(t1 - t0) / 1e9);
       solves.push(Number(t2 - t1) / 1e9);
       return u;

@@ -28,7 +28,7 @@
  * prescribed columns. Those small differences, and round-off, are removed
  * by iterative refinement: after each transform solve the true residual
  * b − A x is computed with A itself and, while above the tolerance, solved
- * for again (at most 4 times), so the answer is the matrix's own to the
+ * for again (at most 4 more solves), so the answer is the matrix's own to the
  * requested relative residual, as with the iterative solvers.
  *
  * @module
@@ -117,7 +117,7 @@ export interface SineTransformSolve {
   readonly solves: number;
   /** Final relative residual ‖b − Ax‖/‖b‖, computed with A itself. */
   readonly residual: number;
-  /** Relative residual before the first solve (1, from x = 0) and after each. */
+  /** Relative residual before the first solve (1, from x = 0) and after each; a view valid until the next solve. */
   readonly history: Float64Array;
 }
 
@@ -161,6 +161,8 @@ export function createSineTransformSolver(
   const n = nx * ny;
   const r = new Float64Array(n);
   const dx = new Float64Array(n);
+  const maxSolves = 5;
+  const history = new Float64Array(maxSolves + 1);
 
   /** w ← DST-I along y then along x. */
   function transform(): void {
@@ -176,18 +178,18 @@ export function createSineTransformSolver(
 
   /** out ← A⁻¹ src by the transforms (ring entries copied). */
   function direct(src: Float64Array, out: Float64Array): void {
-    for (let i = 0; i < mx; i++) w.set(src.subarray((i + 1) * ny + 1, (i + 1) * ny + 1 + my), i * my);
+    for (let i = 0; i < mx; i++) {
+      const from = (i + 1) * ny + 1;
+      for (let j = 0; j < my; j++) w[i * my + j] = src[from + j];
+    }
     transform();
     for (let k = 0; k < w.length; k++) w[k] *= inv[k];
     transform();
-    for (let j = 0; j < ny; j++) {
-      out[j] = src[j];
-      out[(nx - 1) * ny + j] = src[(nx - 1) * ny + j];
-    }
-    for (let i = 1; i < nx - 1; i++) {
-      out[i * ny] = src[i * ny];
-      out[i * ny + ny - 1] = src[i * ny + ny - 1];
-      out.set(w.subarray((i - 1) * my, i * my), i * ny + 1);
+    for (let i = 0; i < nx; i++) {
+      for (let j = 0; j < ny; j++) {
+        const k = i * ny + j;
+        out[k] = i === 0 || j === 0 || i === nx - 1 || j === ny - 1 ? src[k] : w[(i - 1) * my + (j - 1)];
+      }
     }
   }
 
@@ -203,18 +205,19 @@ export function createSineTransformSolver(
       const bn = norm(b);
       if (bn === 0) {
         x.fill(0);
-        return { solves: 0, residual: 0, history: Float64Array.of(0) };
+        history[0] = 0;
+        return { solves: 0, residual: 0, history: history.subarray(0, 1) };
       }
       direct(b, x);
-      const history = [1];
+      history[0] = 1;
       for (let it = 1; ; it++) {
         multiply(x, r);
         for (let i = 0; i < n; i++) r[i] = b[i] - r[i];
         const rel = norm(r) / bn;
-        history.push(rel);
-        if (rel <= tolerance) return { solves: it, residual: rel, history: Float64Array.from(history) };
-        if (!(rel < 1) || it > 4) {
-          throw new NotConvergedError('sine-transform', it, rel, tolerance, Float64Array.from(history),
+        history[it] = rel;
+        if (rel <= tolerance) return { solves: it, residual: rel, history: history.subarray(0, it + 1) };
+        if (!(rel < 1) || it === maxSolves) {
+          throw new NotConvergedError('sine-transform', it, rel, tolerance, history.slice(0, it + 1),
             'the refinement did not reach the tolerance; the matrix is not the constant stencil the transform assumes, use cg');
         }
         direct(r, dx);

@@ -279,7 +279,7 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
         const t = now();
         const x = new Float64Array(system.rhs.length);
         const r = st.solve(system.rhs, x);
-        return { solution: x, iterations: r.solves, residual: r.residual, history: r.history, method: 'sine-transform', seconds: now() - t };
+        return { solution: x, iterations: r.solves, residual: r.residual, history: r.history.slice(), method: 'sine-transform', seconds: now() - t };
       };
       break;
     }
