@@ -1,34 +1,42 @@
 /**
  * A fast direct solver for the constant-coefficient five-point systems of
  * 2-D plates with a prescribed value on every edge, by the discrete sine
- * transform.
+ * transform along one axis and tridiagonal solves along the other.
  *
  * Such a system, on the nodes of an NX × NY grid with the boundary ring
  * prescribed (identity rows, columns eliminated), is on the interior the
  * Kronecker sum K = d·I + w_x·T_x + w_y·T_y, T the 0/1 neighbour matrices of
- * one axis. Its eigenvectors are the products sin(pπi/(N_x+1))·
- * sin(qπj/(N_y+1)) (N = interior count per axis) with eigenvalues
+ * one axis. The eigenvectors of T_y are sin(qπj/(N_y+1)) (N the interior
+ * count of an axis) with eigenvalues 2cos(qπ/(N_y+1)), so a DST-I along y
+ * splits K u = f into N_y independent tridiagonal systems along x,
  *
- *   λ_pq = d + 2w_x cos(pπ/(N_x+1)) + 2w_y cos(qπ/(N_y+1)),
+ *   (d + 2w_y cos(qπ/(N_y+1)))·û_{i,q} + w_x (û_{i−1,q} + û_{i+1,q}) = f̂_{i,q},
  *
- * so K u = f is solved by a 2-D DST-I of f, a division by λ_pq and a second
- * 2-D DST-I (scaled by 4/((N_x+1)(N_y+1))): O(N log N) work, no set-up
- * beyond the eigenvalue table, no iteration. Source: Hockney, R. W. (1965).
- * A fast direct solution of Poisson's equation using Fourier analysis.
- * J. ACM 12(1), 95–113; Buzbee, B. L., Golub, G. H. & Nielson, C. W.
- * (1970). On direct methods for solving Poisson's equations. SIAM J. Numer.
- * Anal. 7(4); the eigenpairs of the 1-D second difference are a fact of the
- * trade (e.g. LeVeque 2007, §2.10).
+ * each solved by the Thomas algorithm factored once, and a second DST-I
+ * (scaled by 2/(N_y+1)) maps û back: O(N log N) work, no iteration. This is
+ * the Fourier-analysis/cyclic-reduction method with no reduction step,
+ * FACR(0). Source: Hockney, R. W. (1965). A fast direct solution of
+ * Poisson's equation using Fourier analysis. J. ACM 12(1), 95–113; Swarztrauber,
+ * P. N. (1977). The methods of cyclic reduction, Fourier analysis and the
+ * FACR algorithm for the discrete solution of Poisson's equation on a
+ * rectangle. SIAM Review 19(3), 490–501; the eigenpairs of the 1-D second
+ * difference are a fact of the trade (e.g. LeVeque 2007, §2.10). The
+ * transformed axis is y when its cell count is a power of 2 (the FFT here is
+ * radix 2; y is the axis contiguous in memory), else x, the interior then
+ * being held transposed.
  *
  * Which matrices qualify: the grid is 2-D with N + 1 = cells a power of 2
- * on both axes (the FFT here is radix 2), exactly the boundary ring is
- * prescribed with identity rows, and every interior row holds the same
- * symmetric stencil d, w_x (±x), w_y (±y) up to 64ε·|d| (coordinates that
- * are not binary fractions differ in the last bits), with no entries in
- * prescribed columns. Those small differences, and round-off, are removed
- * by iterative refinement: after each transform solve the true residual
- * b − A x is computed with A itself and, while above the tolerance, solved
- * for again (at most 4 more solves), so the answer is the matrix's own to the
+ * on at least one axis, exactly the boundary ring is prescribed with
+ * identity rows, every interior row holds the same symmetric stencil d, w_x
+ * (±x), w_y (±y) up to 64ε·|d| (coordinates that are not binary fractions
+ * differ in the last bits), with no entries in prescribed columns, and the
+ * stencil is diagonally dominant, |d| ≥ 2|w_x| + 2|w_y| (to 64ε·|d|; every
+ * conduction and implicit-step stencil is), so that the tridiagonal systems
+ * are strictly dominant and Thomas without pivoting is stable (Higham 2002,
+ * §9.5). Those small differences, and round-off, are removed by iterative
+ * refinement: after each transform solve the true residual b − A x is
+ * computed with A itself and, while above the tolerance, solved for again
+ * (at most 4 more solves), so the answer is the matrix's own to the
  * requested relative residual, as with the iterative solvers.
  *
  * @module
@@ -57,7 +65,7 @@ function isPowerOfTwo(m: number): boolean {
 export function sineStencil(shape: readonly number[], a: CsrMatrix, prescribed: Readonly<Uint8Array>): SineStencil | undefined {
   if (shape.length !== 2) return undefined;
   const [nx, ny] = shape as [number, number];
-  if (nx < 3 || ny < 3 || !isPowerOfTwo(nx - 1) || !isPowerOfTwo(ny - 1) || a.rows !== nx * ny) return undefined;
+  if (nx < 3 || ny < 3 || !(isPowerOfTwo(nx - 1) || isPowerOfTwo(ny - 1)) || a.rows !== nx * ny) return undefined;
   const { rowPtr, colIdx, values } = a;
   // the stencil of the middle interior row
   const mid = (nx >> 1) * ny + (ny >> 1);
@@ -66,15 +74,17 @@ export function sineStencil(shape: readonly number[], a: CsrMatrix, prescribed: 
   let wy = NaN;
   for (let p = rowPtr[mid]; p < rowPtr[mid + 1]; p++) {
     const c = colIdx[p] - mid;
+    // either side: with two interior nodes along an axis the middle one has a single neighbour there
     if (c === 0) d = values[p];
-    else if (c === ny) wx = values[p];
-    else if (c === 1) wy = values[p];
+    else if (c === ny || c === -ny) wx = values[p];
+    else if (c === 1 || c === -1) wy = values[p];
   }
   // one interior node across an axis: no neighbour entries there, and cos(π/2) = 0 drops the weight anyway
   if (nx === 3) wx = 0;
   if (ny === 3) wy = 0;
   if (!(Number.isFinite(d) && Number.isFinite(wx) && Number.isFinite(wy)) || d === 0) return undefined;
   const tol = 64 * Number.EPSILON * Math.abs(d);
+  if (Math.abs(d) < 2 * Math.abs(wx) + 2 * Math.abs(wy) - tol) return undefined;
   const near = (v: number, w: number): boolean => Math.abs(v - w) <= tol;
   for (let i = 0; i < nx; i++) {
     for (let j = 0; j < ny; j++) {
@@ -111,6 +121,24 @@ export function sineStencil(shape: readonly number[], a: CsrMatrix, prescribed: 
   return { d, wx, wy };
 }
 
+/** Σ vᵢ², in four partial sums (not one chain of dependent additions). */
+function squares(v: Float64Array): number {
+  const n = v.length;
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let i = 0;
+  for (; i + 3 < n; i += 4) {
+    s0 += v[i] * v[i];
+    s1 += v[i + 1] * v[i + 1];
+    s2 += v[i + 2] * v[i + 2];
+    s3 += v[i + 3] * v[i + 3];
+  }
+  for (; i < n; i++) s0 += v[i] * v[i];
+  return s0 + s1 + s2 + s3;
+}
+
 /** What one sine-transform solve did. */
 export interface SineTransformSolve {
   /** Transform solves done: 1, plus one per refinement step. */
@@ -132,7 +160,8 @@ export interface SineTransformSolver {
 /**
  * Prepares the sine-transform solve (module doc) of a matrix for which
  * {@link sineStencil} returned `s`. Allocates its workspace once: the
- * interior, a residual, and two FFT buffers.
+ * interior, the Thomas pivots of every mode, a residual, a correction and
+ * two FFT buffers.
  *
  * @internal
  */
@@ -142,21 +171,41 @@ export function createSineTransformSolver(
   const [nx, ny] = shape as [number, number];
   const mx = nx - 2;
   const my = ny - 2;
-  const px: DstPlan = dstPlan(mx + 1);
-  const py: DstPlan = my === mx ? px : dstPlan(my + 1);
-  const len = Math.max(mx, my) + 1;
-  const re = new Float64Array(len);
-  const im = new Float64Array(len);
-  const w = new Float64Array(mx * my);
-  const spare = new Float64Array(Math.max(mx, my));
-  // 1/λ_pq with the inverse transform's factor folded in
-  const scale = 4 / ((mx + 1) * (my + 1));
-  const inv = new Float64Array(mx * my);
-  const cx = new Float64Array(mx);
-  const cy = new Float64Array(my);
-  for (let p = 0; p < mx; p++) cx[p] = 2 * s.wx * Math.cos(((p + 1) * Math.PI) / (mx + 1));
-  for (let q = 0; q < my; q++) cy[q] = 2 * s.wy * Math.cos(((q + 1) * Math.PI) / (my + 1));
-  for (let p = 0; p < mx; p++) for (let q = 0; q < my; q++) inv[p * my + q] = scale / (s.d + cx[p] + cy[q]);
+  // t: the transformed axis, fastest in w; l: the axis of the tridiagonal lines
+  const alongY = isPowerOfTwo(ny - 1);
+  const mt = alongY ? my : mx;
+  const ml = alongY ? mx : my;
+  const wt = alongY ? s.wy : s.wx;
+  const wl = alongY ? s.wx : s.wy;
+  const plan: DstPlan = dstPlan(mt + 1);
+  const re = new Float64Array(mt + 1);
+  const im = new Float64Array(mt + 1);
+  const w = new Float64Array(ml * mt);
+  const spare = new Float64Array(mt);
+  const keep = new Float64Array(mt);
+  // the inverse transform's factor 2/(N_t+1), applied as the interior is read
+  const scale = 2 / (mt + 1);
+  // inverse Thomas pivots of mode q at line position i: pivot[i·mt + q], for i < kept; from there on
+  // every pivot equals the last row's bit for bit (the recurrence reached its fixed point in every mode)
+  const diag = new Float64Array(mt);
+  for (let q = 0; q < mt; q++) diag[q] = s.d + 2 * wt * Math.cos(((q + 1) * Math.PI) / (mt + 1));
+  const rows: Float64Array[] = [];
+  let last = Float64Array.from(diag, (v) => 1 / v);
+  rows.push(last);
+  for (let i = 1; i < ml; i++) {
+    const next = new Float64Array(mt);
+    let same = true;
+    for (let q = 0; q < mt; q++) {
+      next[q] = 1 / (diag[q] - wl * wl * last[q]);
+      if (next[q] !== last[q]) same = false;
+    }
+    if (same) break;
+    rows.push(next);
+    last = next;
+  }
+  const kept = rows.length;
+  const pivot = new Float64Array(kept * mt);
+  for (let i = 0; i < kept; i++) pivot.set(rows[i], i * mt);
   const multiply = csrKernel(a);
   const n = nx * ny;
   const r = new Float64Array(n);
@@ -164,45 +213,89 @@ export function createSineTransformSolver(
   const maxSolves = 5;
   const history = new Float64Array(maxSolves + 1);
 
-  /** w ← DST-I along y then along x. */
-  function transform(): void {
-    for (let i = 0; i < mx; i += 2) {
-      if (i + 1 < mx) dst2(py, re, im, w, i * my, 1, w, (i + 1) * my, 1);
-      else dst2(py, re, im, w, i * my, 1, spare.fill(0), 0, 1);
-    }
-    for (let j = 0; j < my; j += 2) {
-      if (j + 1 < my) dst2(px, re, im, w, j, my, w, j + 1, my);
-      else dst2(px, re, im, w, j, my, spare.fill(0), 0, 1);
+  /** Line l of w ← scale × line l of the interior of src (a row when alongY, else a column). */
+  function load(src: Float64Array, l: number): void {
+    const o = l * mt;
+    if (alongY) {
+      const from = (l + 1) * ny + 1;
+      for (let t = 0; t < mt; t++) w[o + t] = scale * src[from + t];
+    } else {
+      for (let t = 0; t < mt; t++) w[o + t] = scale * src[(t + 1) * ny + 1 + l];
     }
   }
 
-  /** out ← A⁻¹ src by the transforms (ring entries copied). */
+  /** Line l of the interior of out ← line l of w. */
+  function store(out: Float64Array, l: number): void {
+    const o = l * mt;
+    if (alongY) {
+      const to = (l + 1) * ny + 1;
+      for (let t = 0; t < mt; t++) out[to + t] = w[o + t];
+    } else {
+      for (let t = 0; t < mt; t++) out[(t + 1) * ny + 1 + l] = w[o + t];
+    }
+  }
+
+  /** Lines l and l + 1 of w ← their DST-I (one complex FFT for both; a zero line stands in past the end). */
+  function transform(l: number): void {
+    if (l + 1 < ml) dst2(plan, re, im, w, l * mt, 1, w, (l + 1) * mt, 1);
+    else dst2(plan, re, im, w, l * mt, 1, spare.fill(0), 0, 1);
+  }
+
+  /** Forward elimination of line l, all modes at once: ĝ_l = (f̂_l − w_l·ĝ_{l−1})·pivot_l. */
+  function eliminate(l: number): void {
+    const o = l * mt;
+    const po = Math.min(l, kept - 1) * mt;
+    if (l === 0) {
+      for (let q = 0; q < mt; q++) w[q] *= pivot[q];
+    } else {
+      for (let q = 0; q < mt; q++) w[o + q] = (w[o + q] - wl * w[o - mt + q]) * pivot[po + q];
+    }
+  }
+
+  /** Back substitution of line l: û_l = ĝ_l − w_l·pivot_l·û_{l+1}, û_{l+1} at from[fo …]. */
+  function substitute(l: number, from: Float64Array, fo: number): void {
+    const o = l * mt;
+    const po = Math.min(l, kept - 1) * mt;
+    for (let q = 0; q < mt; q++) w[o + q] -= wl * pivot[po + q] * from[fo + q];
+  }
+
+  /**
+   * out ← A⁻¹ src (ring entries copied): line pair by line pair, read, transform and eliminate; then
+   * in reverse, substitute, transform back and write, so each pair is worked on while in cache. The
+   * lower line of each pair is kept in its transformed form, for the substitution of the pair below.
+   */
   function direct(src: Float64Array, out: Float64Array): void {
-    for (let i = 0; i < mx; i++) {
-      const from = (i + 1) * ny + 1;
-      for (let j = 0; j < my; j++) w[i * my + j] = src[from + j];
+    for (let l = 0; l < ml; l += 2) {
+      load(src, l);
+      if (l + 1 < ml) load(src, l + 1);
+      transform(l);
+      eliminate(l);
+      if (l + 1 < ml) eliminate(l + 1);
     }
-    transform();
-    for (let k = 0; k < w.length; k++) w[k] *= inv[k];
-    transform();
-    for (let i = 0; i < nx; i++) {
-      for (let j = 0; j < ny; j++) {
-        const k = i * ny + j;
-        out[k] = i === 0 || j === 0 || i === nx - 1 || j === ny - 1 ? src[k] : w[(i - 1) * my + (j - 1)];
+    for (let l = (ml - 1) & ~1; l >= 0; l -= 2) {
+      if (l + 1 < ml) {
+        if (l + 2 < ml) substitute(l + 1, keep, 0);
+        substitute(l, w, (l + 1) * mt);
       }
+      keep.set(w.subarray(l * mt, l * mt + mt));
+      transform(l);
+      store(out, l);
+      if (l + 1 < ml) store(out, l + 1);
+    }
+    for (let k = 0; k < ny; k++) {
+      out[k] = src[k];
+      out[n - ny + k] = src[n - ny + k];
+    }
+    for (let i = 1; i < nx - 1; i++) {
+      out[i * ny] = src[i * ny];
+      out[i * ny + ny - 1] = src[i * ny + ny - 1];
     }
   }
-
-  const norm = (v: Float64Array): number => {
-    let t = 0;
-    for (let i = 0; i < v.length; i++) t += v[i] * v[i];
-    return Math.sqrt(t);
-  };
 
   return {
     name: 'sine-transform',
     solve(b: Float64Array, x: Float64Array): SineTransformSolve {
-      const bn = norm(b);
+      const bn = Math.sqrt(squares(b));
       if (bn === 0) {
         x.fill(0);
         history[0] = 0;
@@ -213,7 +306,7 @@ export function createSineTransformSolver(
       for (let it = 1; ; it++) {
         multiply(x, r);
         for (let i = 0; i < n; i++) r[i] = b[i] - r[i];
-        const rel = norm(r) / bn;
+        const rel = Math.sqrt(squares(r)) / bn;
         history[it] = rel;
         if (rel <= tolerance) return { solves: it, residual: rel, history: history.subarray(0, it + 1) };
         if (!(rel < 1) || it === maxSolves) {

@@ -143,7 +143,7 @@ interface AdvectionParts {
 }
 
 /** Checks the advection inputs and builds B, |b|² and the Péclet report. */
-function advectionParts(problem: Readonly<TransientProblem>, accuracy: number, alpha: Float64Array): AdvectionParts | undefined {
+function advectionParts(problem: Readonly<TransientProblem>, accuracy: number, diffusivity: () => Float64Array): AdvectionParts | undefined {
   const g = problem.grid;
   const v = problem.velocity;
   if (v === undefined) {
@@ -152,6 +152,7 @@ function advectionParts(problem: Readonly<TransientProblem>, accuracy: number, a
     }
     return undefined;
   }
+  const alpha = diffusivity();
   const axes = g.axes.map((a) => a.name).join(', ');
   if (!Array.isArray(v) || v.length !== g.dimension) {
     const got = Array.isArray(v) ? `${v.length} component(s)` : `a ${typeof v}`;
@@ -215,8 +216,17 @@ export function solveTransient(problem: Readonly<TransientProblem>, options: Rea
   const g = problem.grid;
   const d = discretize(g, { conductivity: problem.conductivity, boundary: problem.boundary, accuracy: problem.accuracy });
   const capacity = sampleCoefficient(g, problem.heatCapacity ?? 1, 'heatCapacity');
-  const alpha = Float64Array.from(d.conductivity, (k, i) => k / capacity[i]!);
-  const adv = advectionParts(problem, d.accuracy, alpha);
+  // α = k/ρc, needed only with advection (cell Péclet numbers and its stability limits)
+  let alpha: Float64Array | undefined;
+  const diffusivity = (): Float64Array => {
+    if (alpha === undefined) {
+      const k = d.conductivity;
+      alpha = new Float64Array(k.length);
+      for (let i = 0; i < k.length; i++) alpha[i] = k[i]! / capacity[i]!;
+    }
+    return alpha;
+  };
+  const adv = advectionParts(problem, d.accuracy, diffusivity);
   const start = options.startTime ?? 0;
   const plan = stepPlan(start, options.endTime, options.dt);
   const s = options.scheme;
@@ -231,7 +241,7 @@ export function solveTransient(problem: Readonly<TransientProblem>, options: Rea
     const cons = d.constrained as Uint8Array;
     stability = adv === undefined
       ? stabilityLimit(d.operator, capacity, cons)
-      : advectionDiffusionLimit(d.operator, totalOperator(d.operator.matrix, adv.matrix, capacity, cons, g.shape), adv.scheme, capacity, cons, alpha, adv.speedSquared);
+      : advectionDiffusionLimit(d.operator, totalOperator(d.operator.matrix, adv.matrix, capacity, cons, g.shape), adv.scheme, capacity, cons, diffusivity(), adv.speedSquared);
     const limit = stability.forwardEuler / (1 - 2 * theta);
     if (options.stabilityGuard !== false && plan.dt > limit) {
       const a = stability.advection;

@@ -106,54 +106,130 @@ function diagonalsOf(m: CsrMatrix): [Float64Array, Float64Array, Float64Array] |
   return [s, d, u];
 }
 
-function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, solver: StepSolver, tolerance: number): ThetaLevel {
+/**
+ * K = VM/dt − θS and E = VM/dt + (1 − θ)S (module formula) row by row into
+ * their final arrays, S's rows being sorted without repeats: the mass goes
+ * onto the diagonal entry (inserted in column order when S has none), K's
+ * prescribed columns move to the elimination list. The sums are formed as
+ * mass + θ-part, as a row builder would.
+ */
+function stepMatrices(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number): {
+  e: CsrMatrix; k: CsrMatrix; elimRow: Int32Array; elimCol: Int32Array; elimVal: Float64Array;
+} {
   const { d, capacity } = p;
   const n = s.rows;
   const V = d.volumes;
   const pres = d.prescribed;
   const cons = d.constrained;
-  const e = new CsrBuilder(n, n, s.values.length);
-  const k = new CsrBuilder(n, n, s.values.length);
-  const er: number[] = [];
-  const ec: number[] = [];
-  const ev: number[] = [];
+  const { rowPtr, colIdx, values } = s;
+  // K and E hold at most S's entries, plus the mass of balance rows where S has no diagonal entry
+  let elim = 0;
+  let missing = 0;
+  for (let r = 0; r < n; r++) {
+    if (pres[r]) continue;
+    let diagonal = false;
+    for (let q = rowPtr[r]!; q < rowPtr[r + 1]!; q++) {
+      const c = colIdx[q]!;
+      if (c === r) diagonal = true;
+      else if (pres[c]) elim++;
+    }
+    if (!diagonal) missing++;
+  }
+  const cap = values.length + missing + 1;
+  const ePtr = new Int32Array(n + 1);
+  const eCol = new Int32Array(cap);
+  const eVal = new Float64Array(cap);
+  const kPtr = new Int32Array(n + 1);
+  const kCol = new Int32Array(cap);
+  const kVal = new Float64Array(cap);
+  let eCount = 0;
+  let kCount = 0;
+  const elimRow = new Int32Array(elim);
+  const elimCol = new Int32Array(elim);
+  const elimVal = new Float64Array(elim);
+  elim = 0;
+  const explicit = theta !== 1;
   for (let r = 0; r < n; r++) {
     if (pres[r]) {
-      k.add(r, 1);
+      kCol[kCount] = r;
+      kVal[kCount++] = 1;
     } else if (cons[r]) {
-      for (let q = s.rowPtr[r]!; q < s.rowPtr[r + 1]!; q++) {
-        const c = s.colIdx[q]!;
+      for (let q = rowPtr[r]!; q < rowPtr[r + 1]!; q++) {
+        const c = colIdx[q]!;
         if (pres[c] && c !== r) {
-          er.push(r);
-          ec.push(c);
-          ev.push(s.values[q]!);
+          elimRow[elim] = r;
+          elimCol[elim] = c;
+          elimVal[elim++] = values[q]!;
         } else {
-          k.add(c, s.values[q]!);
+          kCol[kCount] = c;
+          kVal[kCount++] = values[q]!;
         }
       }
     } else {
       const mass = (V[r]! * capacity[r]!) / dt;
-      k.add(r, mass);
-      e.add(r, mass);
-      for (let q = s.rowPtr[r]!; q < s.rowPtr[r + 1]!; q++) {
-        const c = s.colIdx[q]!;
-        const v = s.values[q]!;
-        if (theta !== 1) e.add(c, (1 - theta) * v);
+      let placed = false;
+      for (let q = rowPtr[r]!; q < rowPtr[r + 1]!; q++) {
+        const c = colIdx[q]!;
+        const v = values[q]!;
+        if (!placed && c >= r) {
+          placed = true;
+          if (c > r) {
+            // S has no diagonal entry here: the mass alone
+            eCol[eCount] = r;
+            eVal[eCount++] = mass;
+            kCol[kCount] = r;
+            kVal[kCount++] = mass;
+          } else {
+            eCol[eCount] = r;
+            eVal[eCount++] = explicit ? mass + (1 - theta) * v : mass;
+            kCol[kCount] = r;
+            kVal[kCount++] = theta === 0 ? mass : mass + -theta * v;
+            continue;
+          }
+        }
+        if (explicit) {
+          eCol[eCount] = c;
+          eVal[eCount++] = (1 - theta) * v;
+        }
         if (theta === 0) continue;
         if (pres[c]) {
           // K_rc = −θ S_rc; K_rc·u_c(tⁿ⁺¹) moves to the right-hand side
-          er.push(r);
-          ec.push(c);
-          ev.push(-theta * v);
+          elimRow[elim] = r;
+          elimCol[elim] = c;
+          elimVal[elim++] = -theta * v;
         } else {
-          k.add(c, -theta * v);
+          kCol[kCount] = c;
+          kVal[kCount++] = -theta * v;
         }
       }
+      if (!placed) {
+        eCol[eCount] = r;
+        eVal[eCount++] = mass;
+        kCol[kCount] = r;
+        kVal[kCount++] = mass;
+      }
     }
-    e.endRow();
-    k.endRow();
+    ePtr[r + 1] = eCount;
+    kPtr[r + 1] = kCount;
   }
-  const km = k.finish();
+  const trim = (col: Int32Array, val: Float64Array, count: number, ptr: Int32Array): CsrMatrix => ({
+    rows: n, cols: n, rowPtr: ptr,
+    colIdx: 8 * count >= 7 * cap ? col.subarray(0, count) : col.slice(0, count),
+    values: 8 * count >= 7 * cap ? val.subarray(0, count) : val.slice(0, count),
+  });
+  const whole = elim === elimVal.length;
+  return {
+    e: trim(eCol, eVal, eCount, ePtr), k: trim(kCol, kVal, kCount, kPtr),
+    elimRow: whole ? elimRow : elimRow.slice(0, elim), elimCol: whole ? elimCol : elimCol.slice(0, elim), elimVal: whole ? elimVal : elimVal.slice(0, elim),
+  };
+}
+
+function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, solver: StepSolver, tolerance: number): ThetaLevel {
+  const { d } = p;
+  const n = s.rows;
+  const pres = d.prescribed;
+  const cons = d.constrained;
+  const { e: em, k: km, elimRow, elimCol, elimVal } = stepMatrices(p, s, theta, dt);
   const symmetric = d.symmetric && p.advection === undefined;
   // forward Euler: K is diagonal unless flux conditions are constraint rows (accuracy 4, 6)
   let choice = solver;
@@ -163,7 +239,6 @@ function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, 
     choice = onlyValues ? 'direct' : 'bicgstab';
   }
   const solve = prepareSolve(d.grid, km, symmetric, pres as Uint8Array, { solver: choice, tolerance });
-  const em = e.finish();
   let fused: ThetaLevel['fused'];
   let twisted: TwistedPlan | undefined;
   if (solve.name === 'thomas') {
@@ -178,7 +253,7 @@ function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, 
   }
   return {
     theta, dt, e: em, multiplyE: csrKernel(em), k: km, solve, fused, twisted,
-    elimRow: Int32Array.from(er), elimCol: Int32Array.from(ec), elimVal: Float64Array.from(ev),
+    elimRow, elimCol, elimVal,
   };
 }
 
@@ -242,8 +317,20 @@ export function createThetaStepper(
     }
   };
   const constB = new Map<ThetaLevel, Float64Array>();
-  // whether the constant data part of a level is all zero (then the twisted step skips it)
+  // whether the constant data part of a level is all zero (then the steps skip adding it)
   const constZero = new Map<ThetaLevel, boolean>();
+  const zeroData = (l: ThetaLevel, data: Float64Array): boolean => {
+    let z = constZero.get(l);
+    if (z === undefined) {
+      z = data.every((v) => v === 0);
+      constZero.set(l, z);
+    }
+    return z;
+  };
+  let count = 0;
+  for (let i = 0; i < n; i++) if (pres[i]) count++;
+  const prescribedNodes = new Int32Array(count);
+  for (let i = 0, q = 0; i < n; i++) if (pres[i]) prescribedNodes[q++] = i;
   /** One step at level l; returns Σu when the twisted step computed it (the driver's blow-up check), else undefined. */
   const one = (l: ThetaLevel, t: number): number | undefined => {
     let data: Float64Array = b;
@@ -259,16 +346,7 @@ export function createThetaStepper(
       dataPart(l, t, b);
     }
     if (l.twisted !== undefined) {
-      let zero = false;
-      if (constant) {
-        let z = constZero.get(l);
-        if (z === undefined) {
-          z = data.every((v) => v === 0);
-          constZero.set(l, z);
-        }
-        zero = z;
-      }
-      const sum = twistedTridiagonalStep(l.twisted, data, zero, u);
+      const sum = twistedTridiagonalStep(l.twisted, data, constant && zeroData(l, data), u);
       iterations = 0;
       return sum;
     }
@@ -279,9 +357,9 @@ export function createThetaStepper(
       return undefined;
     }
     l.multiplyE(u, rhs);
-    for (let i = 0; i < n; i++) rhs[i]! += data[i]!;
+    if (!(constant && zeroData(l, data))) for (let i = 0; i < n; i++) rhs[i]! += data[i]!;
     // warm start at the prescribed values of tⁿ⁺¹
-    for (let i = 0; i < n; i++) if (pres[i]) u[i] = gNext[i]!;
+    for (let q = 0; q < prescribedNodes.length; q++) u[prescribedNodes[q]!] = gNext[prescribedNodes[q]!]!;
     iterations = l.solve.solve(rhs, u);
     return undefined;
   };

@@ -3,9 +3,10 @@
  *
  * - 1-D, tridiagonal: Thomas algorithm, factored once.
  * - 1-D otherwise: banded LU, factored once.
- * - 2-D, constant coefficients, a value on every edge, power-of-2 cell
- *   counts (accuracy 2, no advection): the sine-transform direct solver,
- *   refined against the matrix to the tolerance (`sine-transform.ts`).
+ * - 2-D, constant coefficients, a value on every edge, a power-of-2 cell
+ *   count on at least one axis (accuracy 2, no advection): the
+ *   sine-transform direct solver, refined against the matrix to the
+ *   tolerance (`sine-transform.ts`).
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
  *   V-cycle on uniform grids (IC(0) on stretched ones), warm-started from
  *   the previous level.
@@ -28,7 +29,7 @@ import { makeOperator } from '../operator/operator.js';
 /**
  * Which solver an implicit step uses: 'auto' (module doc), 'direct',
  * 'sine-transform' (constant-coefficient 2-D plates with a value on every
- * edge and power-of-2 cell counts), 'cg' or 'bicgstab'.
+ * edge and a power-of-2 cell count on at least one axis), 'cg' or 'bicgstab'.
  */
 export type StepSolver = 'auto' | 'direct' | 'sine-transform' | 'cg' | 'bicgstab';
 
@@ -62,7 +63,7 @@ export function prepareSolve(
     ? sineStencil(g.shape, k, prescribed) : undefined;
   if (method === 'sine-transform') {
     if (sine === undefined) {
-      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on each axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
+      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on at least one axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
     }
   }
   if (method === 'auto') method = g.dimension === 1 ? 'direct' : sine !== undefined ? 'sine-transform' : symmetric ? 'cg' : 'bicgstab';

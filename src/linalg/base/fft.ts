@@ -41,10 +41,13 @@ export interface FftPlan {
   readonly m: number;
   /** Bit-reversed index of every position. */
   readonly reverse: Int32Array;
-  /** cos(2πk/M), k = 0 … M/2 − 1. */
-  readonly cos: Float64Array;
-  /** sin(2πk/M), k = 0 … M/2 − 1. */
-  readonly sin: Float64Array;
+  /** Whether log₂M is odd: then a length-2 stage comes before the radix-4 stages. */
+  readonly oddStage: boolean;
+  /**
+   * Twiddles of the radix-4 stages with twiddles (quarter length h ≥ 2), stage
+   * after stage, six per k = 0 … h − 1: cos and −sin of 2πk/4h, 2·2πk/4h, 3·2πk/4h.
+   */
+  readonly twiddles: Float64Array;
 }
 
 /** The tables for length m (a power of 2, m ≥ 2). @internal */
@@ -57,14 +60,21 @@ export function fftPlan(m: number): FftPlan {
     for (let b = 0; b < bits; b++) if (i & (1 << b)) r |= 1 << (bits - 1 - b);
     reverse[i] = r;
   }
-  const half = m >> 1;
-  const cos = new Float64Array(half);
-  const sin = new Float64Array(half);
-  for (let k = 0; k < half; k++) {
-    cos[k] = Math.cos((2 * Math.PI * k) / m);
-    sin[k] = Math.sin((2 * Math.PI * k) / m);
+  const oddStage = (bits & 1) === 1;
+  const count: number[] = [];
+  for (let h = oddStage ? 2 : 4; 4 * h <= m; h *= 4) count.push(h);
+  const twiddles = new Float64Array(6 * count.reduce((a, b) => a + b, 0));
+  let o = 0;
+  for (const h of count) {
+    for (let k = 0; k < h; k++) {
+      for (let q = 1; q <= 3; q++) {
+        const t = (2 * Math.PI * q * k) / (4 * h);
+        twiddles[o++] = Math.cos(t);
+        twiddles[o++] = -Math.sin(t);
+      }
+    }
   }
-  return { m, reverse, cos, sin };
+  return { m, reverse, oddStage, twiddles };
 }
 
 /**
@@ -72,7 +82,7 @@ export function fftPlan(m: number): FftPlan {
  * of the plan.
  */
 export function fft(p: FftPlan, re: Float64Array, im: Float64Array): void {
-  const { m, reverse, cos, sin } = p;
+  const { m, reverse } = p;
   for (let i = 0; i < m; i++) {
     const j = reverse[i];
     if (j > i) {
@@ -84,32 +94,114 @@ export function fft(p: FftPlan, re: Float64Array, im: Float64Array): void {
       im[j] = ti;
     }
   }
-  // length-2 butterflies first: no twiddles
-  for (let i = 0; i < m; i += 2) {
-    const ar = re[i];
-    const ai = im[i];
-    const br = re[i + 1];
-    const bi = im[i + 1];
-    re[i] = ar + br;
-    im[i] = ai + bi;
-    re[i + 1] = ar - br;
-    im[i + 1] = ai - bi;
+  fftReversed(p, re, im);
+}
+
+/**
+ * The butterflies of {@link fft} on input already in bit-reversed order.
+ * Decimation in time, two radix-2 stages (halves h and 2h) at a time as one
+ * radix-4 stage: with a₀ … a₃ = z at s + k, s + k + h, s + k + 2h, s + k + 3h
+ * and w = e^{−2πik/4h},
+ *
+ *   A₁ = w²a₁, A₂ = wa₂, A₃ = w³a₃, b± = a₀ ± A₁, c± = A₂ ± A₃,
+ *   z ← b₊ + c₊, b₋ − i·c₋, b₊ − c₊, b₋ + i·c₋,
+ *
+ * which is the two radix-2 stages with W_{2h}^k = w² and W_{4h}^{k+h} =
+ * −i·w multiplied out (three complex products instead of four, half the
+ * passes). A length-2 stage comes first when log₂M is odd. Source: the
+ * radix-4 decimation-in-time butterfly, a fact of the trade (e.g. Van Loan,
+ * C. (1992). Computational Frameworks for the Fast Fourier Transform.
+ * SIAM, §1.4 and §2.3).
+ */
+function fftReversed(p: FftPlan, re: Float64Array, im: Float64Array): void {
+  const { m, twiddles } = p;
+  let h: number;
+  if (p.oddStage) {
+    for (let i = 0; i < m; i += 2) {
+      const ar = re[i];
+      const ai = im[i];
+      const br = re[i + 1];
+      const bi = im[i + 1];
+      re[i] = ar + br;
+      im[i] = ai + bi;
+      re[i + 1] = ar - br;
+      im[i + 1] = ai - bi;
+    }
+    h = 2;
+  } else {
+    // h = 1: every twiddle is 1
+    for (let i = 0; i < m; i += 4) {
+      const a0r = re[i];
+      const a0i = im[i];
+      const a1r = re[i + 1];
+      const a1i = im[i + 1];
+      const a2r = re[i + 2];
+      const a2i = im[i + 2];
+      const a3r = re[i + 3];
+      const a3i = im[i + 3];
+      const bpr = a0r + a1r;
+      const bpi = a0i + a1i;
+      const bmr = a0r - a1r;
+      const bmi = a0i - a1i;
+      const cpr = a2r + a3r;
+      const cpi = a2i + a3i;
+      const cmr = a2r - a3r;
+      const cmi = a2i - a3i;
+      re[i] = bpr + cpr;
+      im[i] = bpi + cpi;
+      re[i + 1] = bmr + cmi;
+      im[i + 1] = bmi - cmr;
+      re[i + 2] = bpr - cpr;
+      im[i + 2] = bpi - cpi;
+      re[i + 3] = bmr - cmi;
+      im[i + 3] = bmi + cmr;
+    }
+    h = 4;
   }
-  for (let len = 4; len <= m; len <<= 1) {
-    const h = len >> 1;
-    const step = m / len;
-    for (let s = 0; s < m; s += len) {
-      for (let k = 0, t = 0; k < h; k++, t += step) {
-        const wr = cos[t];
-        const wi = -sin[t];
-        const a = s + k;
-        const b = a + h;
-        const xr = re[b] * wr - im[b] * wi;
-        const xi = re[b] * wi + im[b] * wr;
-        re[b] = re[a] - xr;
-        im[b] = im[a] - xi;
-        re[a] += xr;
-        im[a] += xi;
+  for (let o = 0; 4 * h <= m; o += 6 * h, h *= 4) {
+    const span = 4 * h;
+    for (let s = 0; s < m; s += span) {
+      for (let k = 0, t = o; k < h; k++, t += 6) {
+        const w1r = twiddles[t];
+        const w1i = twiddles[t + 1];
+        const w2r = twiddles[t + 2];
+        const w2i = twiddles[t + 3];
+        const w3r = twiddles[t + 4];
+        const w3i = twiddles[t + 5];
+        const i0 = s + k;
+        const i1 = i0 + h;
+        const i2 = i1 + h;
+        const i3 = i2 + h;
+        const a0r = re[i0];
+        const a0i = im[i0];
+        let xr = re[i1];
+        let xi = im[i1];
+        const A1r = w2r * xr - w2i * xi;
+        const A1i = w2r * xi + w2i * xr;
+        xr = re[i2];
+        xi = im[i2];
+        const A2r = w1r * xr - w1i * xi;
+        const A2i = w1r * xi + w1i * xr;
+        xr = re[i3];
+        xi = im[i3];
+        const A3r = w3r * xr - w3i * xi;
+        const A3i = w3r * xi + w3i * xr;
+        const bpr = a0r + A1r;
+        const bpi = a0i + A1i;
+        const bmr = a0r - A1r;
+        const bmi = a0i - A1i;
+        const cpr = A2r + A3r;
+        const cpi = A2i + A3i;
+        const cmr = A2r - A3r;
+        const cmi = A2i - A3i;
+        re[i0] = bpr + cpr;
+        im[i0] = bpi + cpi;
+        re[i1] = bmr + cmi;
+        im[i1] = bmi - cmr;
+        re[i2] = bpr - cpr;
+        im[i2] = bpi - cpi;
+        re[i3] = bmr - cmi;
+        im[i3] = bmi + cmr;
       }
     }
   }
@@ -142,7 +234,9 @@ export function dst2(
   const n = p.fft.m;
   const s = p.half;
   const h = n >> 1;
-  // y_j and y_{N−j} together: sin(πj/N) is the same for both, the antisymmetric half flips sign
+  // y_j and y_{N−j} together: sin(πj/N) is the same for both, the antisymmetric half flips sign;
+  // written straight to their bit-reversed places, so the FFT needs no permutation pass
+  const rev = p.fft.reverse;
   re[0] = 0;
   im[0] = 0;
   for (let j = 1; j <= h; j++) {
@@ -151,14 +245,16 @@ export function dst2(
     const c = v[ov + (j - 1) * sv];
     const d = v[ov + (n - j - 1) * sv];
     const sj = s[j];
-    re[j] = sj * (a + b) + 0.5 * (a - b);
-    im[j] = sj * (c + d) + 0.5 * (c - d);
+    const rj = rev[j];
+    re[rj] = sj * (a + b) + 0.5 * (a - b);
+    im[rj] = sj * (c + d) + 0.5 * (c - d);
     if (j < h) {
-      re[n - j] = sj * (a + b) - 0.5 * (a - b);
-      im[n - j] = sj * (c + d) - 0.5 * (c - d);
+      const rk = rev[n - j];
+      re[rk] = sj * (a + b) - 0.5 * (a - b);
+      im[rk] = sj * (c + d) - 0.5 * (c - d);
     }
   }
-  fft(p.fft, re, im);
+  fftReversed(p.fft, re, im);
   // Y_k = R_k − i·I_k (forward sign) from Z: Re Y = (Re Z_k + Re Z_{N−k})/2, Im Y = (Im Z_k − Im Z_{N−k})/2;
   // Re Y′ = (Im Z_k + Im Z_{N−k})/2, Im Y′ = −(Re Z_k − Re Z_{N−k})/2
   // k = 0: R₀ = Re Z₀ (y), Im Z₀ (y′); S₁ = R₀/2
