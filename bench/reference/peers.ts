@@ -9,10 +9,14 @@
  * the second word (`W1 c-O3 n=2048 …`); this module reprints them in the
  * harness format (`W1 impl=c variant=O3 n=2048 …`). Registered in
  * {@link peerSources}: W1 and W1b (`c/stencil.c`, compiled to a temporary
- * directory and removed afterwards, and `w1_stencil.py`) and the W2 CSR
- * assembly (`w2_poisson.py`'s `assemble`).
+ * directory and removed afterwards, and `w1_stencil.py`), the W2 CSR
+ * assembly (`w2_poisson.py`'s `assemble`; its solves take minutes, run the
+ * script by hand), W3 (`c/heat1d.c`, `w3_heat1d.py`), W4 (`w4_heat2d.py`)
+ * and W5 (`c/wave.c`, `w5_wave.py`). The W4 peer steps 512² interior nodes
+ * from sin·sin, quadrille 511² (512 cells) from the polynomial start of
+ * WORKLOADS.md; a factor-once LU costs the same for either start.
  *
- * Run alone: `npx tsx bench/reference/peers.ts [W1] [W1b] [W2]`.
+ * Run alone: `npx tsx bench/reference/peers.ts [W1] [W1b] [W2] [W3] [W4] [W5]`.
  *
  * @module
  */
@@ -159,6 +163,16 @@ export const peerSources: readonly PeerSource[] = [
     run: (dir) => runPython(dir, ['w1_stencil.py']) },
   { ids: ['w2'], needs: 'python', label: 'python3: w2_poisson.assemble(1024), CSC and CSR',
     run: (dir) => runPython(dir, ['-c', W2_ASSEMBLY]) },
+  { ids: ['w3'], needs: 'c', label: 'c/heat1d.c 1000000 100, gcc -O3 -march=native -std=c11',
+    run: (dir) => runC(dir, 'heat1d', ['1000000', '100']) },
+  { ids: ['w3'], needs: 'python', label: 'python3 w3_heat1d.py (about 1 minute)',
+    run: (dir) => runPython(dir, ['w3_heat1d.py']) },
+  { ids: ['w4'], needs: 'python', label: 'python3 w4_heat2d.py (about 2 minutes)',
+    run: (dir) => runPython(dir, ['w4_heat2d.py']) },
+  { ids: ['w5'], needs: 'c', label: 'c/wave.c 1024 1000, gcc -O3 -march=native -std=c11',
+    run: (dir) => runC(dir, 'wave', ['1024', '1000']) },
+  { ids: ['w5'], needs: 'python', label: 'python3 w5_wave.py (about 2 minutes)',
+    run: (dir) => runPython(dir, ['w5_wave.py']) },
 ];
 
 /**

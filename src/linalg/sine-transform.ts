@@ -189,23 +189,21 @@ export function createSineTransformSolver(
   // every pivot equals the last row's bit for bit (the recurrence reached its fixed point in every mode)
   const diag = new Float64Array(mt);
   for (let q = 0; q < mt; q++) diag[q] = s.d + 2 * wt * Math.cos(((q + 1) * Math.PI) / (mt + 1));
-  const rows: Float64Array[] = [];
-  let last = Float64Array.from(diag, (v) => 1 / v);
-  rows.push(last);
-  for (let i = 1; i < ml; i++) {
-    const next = new Float64Array(mt);
+  const table = new Float64Array(ml * mt);
+  for (let q = 0; q < mt; q++) table[q] = 1 / diag[q];
+  let kept = 1;
+  while (kept < ml) {
+    const o = kept * mt;
     let same = true;
     for (let q = 0; q < mt; q++) {
-      next[q] = 1 / (diag[q] - wl * wl * last[q]);
-      if (next[q] !== last[q]) same = false;
+      const m = 1 / (diag[q] - wl * wl * table[o - mt + q]);
+      table[o + q] = m;
+      if (m !== table[o - mt + q]) same = false;
     }
     if (same) break;
-    rows.push(next);
-    last = next;
+    kept++;
   }
-  const kept = rows.length;
-  const pivot = new Float64Array(kept * mt);
-  for (let i = 0; i < kept; i++) pivot.set(rows[i], i * mt);
+  const pivot = kept === ml ? table : table.slice(0, kept * mt);
   const multiply = csrKernel(a);
   const n = nx * ny;
   const r = new Float64Array(n);

@@ -125,6 +125,13 @@ export interface TransientResult extends RunResult {
   readonly peclet: PecletReport | undefined;
   /** The discretisation used. */
   readonly discretization: Discretization;
+  /**
+   * The linear solve of the main steps (see `solver` of the options):
+   * 'thomas' or 'banded-lu' (1-D, and 'thomas' for the diagonal system of
+   * forward Euler), 'sine-transform', 'cg+multigrid', 'cg+ic0' or
+   * 'bicgstab+ilu0'.
+   */
+  readonly solver: string;
 }
 
 function sampleInitial(g: Grid, v: Initial, what: string): Float64Array {
@@ -265,7 +272,7 @@ export function solveTransient(problem: Readonly<TransientProblem>, options: Rea
   checkResume(options.resume, stepper.scheme, start, options.endTime, plan.dt, g.size, 1);
   if (options.resume) u.set(options.resume.state[0]!);
   const result = runStepper(g, stepper, plan, options, options.resume?.step ?? 0);
-  return { ...result, stability, peclet: adv?.peclet, discretization: d };
+  return { ...result, stability, peclet: adv?.peclet, discretization: d, solver: stepper.solver };
 }
 
 /** A − diag(ρc)·B on the balance rows, A on the constraint rows. */

@@ -265,7 +265,7 @@ function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, 
 export function createThetaStepper(
   p: DiffusionParts, u0: Float64Array, theta: number, dt: number,
   options: { solver: StepSolver; tolerance: number; rannacherSteps: number },
-): Stepper {
+): Stepper & { readonly solver: string } {
   const { d } = p;
   const n = u0.length;
   const V = d.volumes;
@@ -367,6 +367,7 @@ export function createThetaStepper(
     scheme: theta === 0 ? 'forward-euler' : theta === 1 ? 'backward-euler' : theta === 0.5 ? 'crank-nicolson' : `theta(${theta})`,
     size: n,
     state: [u],
+    solver: main.solve.name,
     get lastIterations() {
       return iterations;
     },

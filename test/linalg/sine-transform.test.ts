@@ -218,6 +218,11 @@ describe('the sine-transform solve', () => {
     const opts = { scheme: 'crank-nicolson' as const, dt: 1e-3, endTime: 0.02, tolerance: 1e-12 };
     const a = solveTransient(problem, opts);
     const b = solveTransient(problem, { ...opts, solver: 'cg' });
+    expect([a.solver, b.solver]).toEqual(['sine-transform', 'cg+multigrid']);
+    // a 1-D rod steps by Thomas, forward Euler's diagonal system too
+    const rod = { grid: grid({ x: { from: 0, to: 1, cells: 8 } }), initial: 0, boundary: [{ faces: ['xmin', 'xmax'] as const, kind: 'dirichlet' as const, value: 1 }] };
+    expect(solveTransient(rod, { scheme: 'crank-nicolson', dt: 1e-3, endTime: 1e-2 }).solver).toBe('thomas');
+    expect(solveTransient(rod, { scheme: 'forward-euler', dt: 1e-3, endTime: 1e-2 }).solver).toBe('thomas');
     let diff = 0;
     for (let i = 0; i < g.size; i++) diff = Math.max(diff, Math.abs(a.field.data[i]! - b.field.data[i]!));
     expect(diff).toBeLessThan(1e-10);
