@@ -24,9 +24,9 @@ export function checkSpacing(name: string, v: number): void {
   if (!(Number.isFinite(v) && v > 0)) throw new InvalidSpacingError(name, v);
 }
 
-/** Throws at the first non-finite entry of `a`. */
-export function checkAllFinite(what: string, a: ArrayLike<number>): void {
-  for (let i = 0; i < a.length; i++) {
+/** Throws at the first non-finite entry of `a` in [from, to) (all by default), naming its index. */
+export function checkAllFinite(what: string, a: ArrayLike<number>, from = 0, to = a.length): void {
+  for (let i = from; i < to; i++) {
     const v = a[i] as number;
     if (!Number.isFinite(v)) throw new NonFiniteValueError(`${what}[${i}]`, v);
   }

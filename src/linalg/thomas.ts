@@ -44,8 +44,9 @@ export function factorTridiagonal(sub: ArrayLike<number>, diag: ArrayLike<number
     throw new ShapeMismatchError(`diagonals have lengths ${sub.length}, ${n}, ${sup.length}; give three arrays of length n (sub[0] and sup[n−1] unused)`);
   }
   checkAllFinite('diag', diag);
-  checkAllFinite('sub', Array.from(sub).slice(1));
-  checkAllFinite('sup', Array.from(sup).slice(0, Math.max(0, n - 1)));
+  // sub[0] and sup[n−1] are not used
+  checkAllFinite('sub', sub, 1);
+  checkAllFinite('sup', sup, 0, Math.max(0, n - 1));
   const a = new Float64Array(n);
   const inv = new Float64Array(n);
   const ratio = new Float64Array(n);

@@ -6,7 +6,8 @@
  * - 1-D: a direct solve (Thomas when the system is tridiagonal, banded LU
  *   otherwise);
  * - 2-D with constant coefficients, a prescribed value on every edge and a
- *   power-of-2 number of cells on at least one axis (accuracy 2): the
+ *   an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100,
+ *   …) on at least one axis (accuracy 2): the
  *   sine-transform direct solver (Hockney 1965), O(N log N), refined against
  *   the matrix to the tolerance;
  * - symmetric systems (accuracy 2) on uniform 2-D / 3-D grids: conjugate
@@ -46,7 +47,8 @@ export interface SimpleSolver {
   /**
    * 'auto' (module doc), 'direct' (Thomas or banded LU) or 'sine-transform'
    * (the fast direct solver of constant-coefficient 2-D plates with a value
-   * on every edge and a power-of-2 cell count on at least one axis; see
+   * on every edge and an even cell count with no prime factor above 5 on at
+   * least one axis; see
    * `sine-transform.ts`).
    */
   readonly method: 'auto' | 'direct' | 'sine-transform';
@@ -217,7 +219,7 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
   const sine = g.dimension === 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
     ? sineStencil(g.shape, system.matrix.matrix, prescribed) : undefined;
   if (choice.method === 'sine-transform' && sine === undefined) {
-    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on at least one axis, a value on every edge, constant conductivity and accuracy 2; use auto or cg');
+    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis, a value on every edge, constant conductivity and accuracy 2; use auto or cg');
   }
   if (choice.method === 'auto') {
     if (g.dimension === 1) method = { method: 'direct' };

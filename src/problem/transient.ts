@@ -127,9 +127,9 @@ export interface TransientResult extends RunResult {
   readonly discretization: Discretization;
   /**
    * The linear solve of the main steps (see `solver` of the options):
-   * 'thomas' or 'banded-lu' (1-D, and 'thomas' for the diagonal system of
-   * forward Euler), 'sine-transform', 'cg+multigrid', 'cg+ic0' or
-   * 'bicgstab+ilu0'.
+   * 'thomas' (tridiagonal, including forward Euler's diagonal system),
+   * 'banded-lu' (other systems under 'direct', 1-D by default),
+   * 'sine-transform', 'cg+multigrid', 'cg+ic0' or 'bicgstab+ilu0'.
    */
   readonly solver: string;
 }

@@ -30,7 +30,6 @@
  */
 import { type Discretization, sampleSource, type Source } from '../boundary/discretize.js';
 import { CsrBuilder, type CsrMatrix, csrKernel } from '../operator/matrix.js';
-import { factorTridiagonal } from '../linalg/thomas.js';
 import { fusedTridiagonalStep, planTwistedStep, type TwistedPlan, twistedTridiagonalStep } from './base/tridiagonal-step.js';
 import { type PreparedSolve, type StepSolver, prepareSolve } from './implicit.js';
 import type { Stepper } from './stepper.js';
@@ -122,20 +121,22 @@ function stepMatrices(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number
   const pres = d.prescribed;
   const cons = d.constrained;
   const { rowPtr, colIdx, values } = s;
-  // K and E hold at most S's entries, plus the mass of balance rows where S has no diagonal entry
+  // a bound on the entries of K and of E: one per prescribed row, S's row plus a diagonal where it has none otherwise
   let elim = 0;
-  let missing = 0;
+  let cap = 0;
   for (let r = 0; r < n; r++) {
-    if (pres[r]) continue;
+    if (pres[r]) {
+      cap++;
+      continue;
+    }
     let diagonal = false;
     for (let q = rowPtr[r]!; q < rowPtr[r + 1]!; q++) {
       const c = colIdx[q]!;
       if (c === r) diagonal = true;
       else if (pres[c]) elim++;
     }
-    if (!diagonal) missing++;
+    cap += rowPtr[r + 1]! - rowPtr[r]! + (diagonal ? 0 : 1);
   }
-  const cap = values.length + missing + 1;
   const ePtr = new Int32Array(n + 1);
   const eCol = new Int32Array(cap);
   const eVal = new Float64Array(cap);
@@ -241,14 +242,14 @@ function buildLevel(p: DiffusionParts, s: CsrMatrix, theta: number, dt: number, 
   const solve = prepareSolve(d.grid, km, symmetric, pres as Uint8Array, { solver: choice, tolerance });
   let fused: ThetaLevel['fused'];
   let twisted: TwistedPlan | undefined;
-  if (solve.name === 'thomas') {
+  const kd = solve.tridiagonal;
+  if (kd !== undefined) {
     const ed = diagonalsOf(em);
-    const kd = diagonalsOf(km);
-    if (ed !== undefined && kd !== undefined) {
-      // the plain factorisation first: its pivot check reports a singular K
-      const f = factorTridiagonal(kd[0], kd[1], kd[2]);
+    if (ed !== undefined) {
+      // K's plain factorisation (prepareSolve's, whose pivot check reports a singular K) for the fused step
+      const f = kd.factors;
       fused = { es: ed[0], ed: ed[1], eu: ed[2], a: f.sub as Float64Array, inv: f.inversePivots as Float64Array, ratio: f.ratios as Float64Array };
-      twisted = planTwistedStep(ed[0], ed[1], ed[2], kd[0], kd[1], kd[2]);
+      twisted = planTwistedStep(ed[0], ed[1], ed[2], kd.sub, kd.diag, kd.sup);
     }
   }
   return {

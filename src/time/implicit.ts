@@ -3,8 +3,9 @@
  *
  * - 1-D, tridiagonal: Thomas algorithm, factored once.
  * - 1-D otherwise: banded LU, factored once.
- * - 2-D, constant coefficients, a value on every edge, a power-of-2 cell
- *   count on at least one axis (accuracy 2, no advection): the
+ * - 2-D, constant coefficients, a value on every edge, an even cell count
+ *   with no prime factor above 5 on at least one axis (accuracy 2, no
+ *   advection): the
  *   sine-transform direct solver, refined against the matrix to the
  *   tolerance (`sine-transform.ts`).
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
@@ -21,7 +22,7 @@ import { factorBanded, solveBanded } from '../linalg/banded.js';
 import { bicgstab, conjugateGradient, createKrylovWorkspace } from '../linalg/krylov.js';
 import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, type Preconditioner } from '../linalg/preconditioners.js';
-import { thomasSolve, factorTridiagonal } from '../linalg/thomas.js';
+import { thomasSolve, factorTridiagonal, type TridiagonalFactors } from '../linalg/thomas.js';
 import { createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
 import type { CsrMatrix } from '../operator/matrix.js';
 import { makeOperator } from '../operator/operator.js';
@@ -29,7 +30,8 @@ import { makeOperator } from '../operator/operator.js';
 /**
  * Which solver an implicit step uses: 'auto' (module doc), 'direct',
  * 'sine-transform' (constant-coefficient 2-D plates with a value on every
- * edge and a power-of-2 cell count on at least one axis), 'cg' or 'bicgstab'.
+ * edge and an even cell count with no prime factor above 5 on at least one
+ * axis), 'cg' or 'bicgstab'.
  */
 export type StepSolver = 'auto' | 'direct' | 'sine-transform' | 'cg' | 'bicgstab';
 
@@ -39,6 +41,8 @@ export interface PreparedSolve {
   readonly name: string;
   /** Solves into x (x holds the warm start on entry); returns the iterations used. */
   solve(b: Float64Array, x: Float64Array): number;
+  /** For 'thomas': K's three diagonals (sub[0], sup[n−1] zero) and their factors, for fused steps. */
+  readonly tridiagonal?: { readonly sub: Float64Array; readonly diag: Float64Array; readonly sup: Float64Array; readonly factors: TridiagonalFactors };
 }
 
 function tridiagonal(m: CsrMatrix): boolean {
@@ -63,7 +67,7 @@ export function prepareSolve(
     ? sineStencil(g.shape, k, prescribed) : undefined;
   if (method === 'sine-transform') {
     if (sine === undefined) {
-      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with a power-of-2 number of cells on at least one axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
+      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
     }
   }
   if (method === 'auto') method = g.dimension === 1 ? 'direct' : sine !== undefined ? 'sine-transform' : symmetric ? 'cg' : 'bicgstab';
@@ -91,7 +95,7 @@ export function prepareSolve(
       const a = f.sub as Float64Array;
       const inv = f.inversePivots as Float64Array;
       const ratio = f.ratios as Float64Array;
-      return { name: 'thomas', solve: (b, x) => (thomasSolve(n, a, inv, ratio, b, x), 0) };
+      return { name: 'thomas', solve: (b, x) => (thomasSolve(n, a, inv, ratio, b, x), 0), tridiagonal: { sub, diag, sup, factors: f } };
     }
     const lu = factorBanded(k);
     return { name: 'banded-lu', solve: (b, x) => (solveBanded(lu, b, x), 0) };

@@ -270,7 +270,8 @@ export function runStepper(g: Grid, stepper: Stepper, plan: { steps: number; dt:
     u = stepper.state[0]!;
     iterations += stepper.lastIterations;
     step++;
-    // blow-up: NaN or ±Infinity anywhere makes the sum non-finite
+    // blow-up: NaN or ±Infinity anywhere makes the sum non-finite (the fused 1-D and leapfrog kernels
+    // report Σu, which can also overflow when finite values approach 1e308: an alarm only at such sizes)
     const sum = typeof reported === 'number' ? reported : nonFinite(u);
     if (!Number.isFinite(sum)) throw new BlowUpError(step, t1);
     if (o.onStep) o.onStep({ time: t1, step, u });

@@ -59,6 +59,10 @@ describe('Thomas algorithm', () => {
   it('refuses mismatched lengths and NaN', () => {
     expect(codeOf(() => factorTridiagonal(new Float64Array(2), new Float64Array(3), new Float64Array(3)))).toBe('SHAPE_MISMATCH');
     expect(codeOf(() => factorTridiagonal(new Float64Array(2), Float64Array.of(1, NaN), new Float64Array(2)))).toBe('NON_FINITE');
+    // the unused corners sub[0] and sup[n−1] may hold anything; a used entry is named by its own index
+    expect(() => factorTridiagonal(Float64Array.of(NaN, 1, 1), Float64Array.of(4, 4, 4), Float64Array.of(1, 1, Infinity))).not.toThrow();
+    expect(() => factorTridiagonal(Float64Array.of(0, 1, NaN), Float64Array.of(4, 4, 4), new Float64Array(3))).toThrow(/sub\[2\]/);
+    expect(() => factorTridiagonal(new Float64Array(3), Float64Array.of(4, 4, 4), Float64Array.of(0, Infinity, 0))).toThrow(/sup\[1\]/);
     const f = factorTridiagonal(new Float64Array(2), Float64Array.of(1, 1), new Float64Array(2));
     expect(codeOf(() => solveTridiagonal(f, Float64Array.of(1, NaN)))).toBe('NON_FINITE');
     expect(codeOf(() => solveTridiagonal(f, Float64Array.of(1)))).toBe('SHAPE_MISMATCH');
