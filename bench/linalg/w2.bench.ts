@@ -261,10 +261,10 @@ export function runW2(ctx: Readonly<BenchContext>, sizes: readonly number[] = W2
   for (const n of sizes) runOne('W2', n, 2, ['mg-pcg', 'mg-v', 'mg-fmg', 'sine-transform'], n >= 1023 ? 5 : ctx.runs);
 }
 
-/** Runs W2-3D (n = 127 by default) in this process: `mg-pcg` and `mg-v`, 5 timed runs. */
+/** Runs W2-3D (n = 127 by default) in this process: `mg-pcg`, `mg-v` and `sine-transform`, 5 timed runs. */
 export function runW2x3D(ctx: Readonly<BenchContext>, sizes: readonly number[] = W2_3D_SIZES): void {
   void ctx;
-  for (const n of sizes) runOne('W2-3D', n, 3, ['mg-pcg', 'mg-v'], 5);
+  for (const n of sizes) runOne('W2-3D', n, 3, ['mg-pcg', 'mg-v', 'sine-transform'], 5);
 }
 
 /** The linalg group's cases: one per size, so each gets its own process and peak RSS. */

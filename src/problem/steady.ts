@@ -5,11 +5,12 @@
  * Default solver, chosen from the problem:
  * - 1-D: a direct solve (Thomas when the system is tridiagonal, banded LU
  *   otherwise);
- * - 2-D with constant coefficients, a prescribed value on every edge and a
- *   an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100,
- *   …) on at least one axis (accuracy 2): the
- *   sine-transform direct solver (Hockney 1965), O(N log N), refined against
- *   the matrix to the tolerance;
+ * - 2-D with constant coefficients, a prescribed value on every edge and an
+ *   even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …)
+ *   on at least one axis (accuracy 2), or 3-D with a value on every face and
+ *   such counts on y and z: the sine-transform direct solver (Hockney 1965;
+ *   Swarztrauber 1977), O(N log N), refined against the matrix to the
+ *   tolerance;
  * - symmetric systems (accuracy 2) on uniform 2-D / 3-D grids: conjugate
  *   gradients preconditioned by one multigrid V-cycle;
  * - symmetric systems on stretched grids: conjugate gradients with IC(0);
@@ -48,7 +49,7 @@ export interface SimpleSolver {
    * 'auto' (module doc), 'direct' (Thomas or banded LU) or 'sine-transform'
    * (the fast direct solver of constant-coefficient 2-D plates with a value
    * on every edge and an even cell count with no prime factor above 5 on at
-   * least one axis; see
+   * least one axis, and of 3-D blocks with such counts on y and z; see
    * `sine-transform.ts`).
    */
   readonly method: 'auto' | 'direct' | 'sine-transform';
@@ -216,10 +217,10 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
   const choice = options.solver ?? { method: 'auto' };
   const uniform = g.axes.every((a) => a.uniform);
   let method: SteadySolver = choice;
-  const sine = g.dimension === 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
+  const sine = g.dimension >= 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
     ? sineStencil(g.shape, system.matrix.matrix, prescribed) : undefined;
   if (choice.method === 'sine-transform' && sine === undefined) {
-    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis, a value on every edge, constant conductivity and accuracy 2; use auto or cg');
+    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant conductivity and accuracy 2; use auto or cg');
   }
   if (choice.method === 'auto') {
     if (g.dimension === 1) method = { method: 'direct' };

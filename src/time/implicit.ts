@@ -4,8 +4,8 @@
  * - 1-D, tridiagonal: Thomas algorithm, factored once.
  * - 1-D otherwise: banded LU, factored once.
  * - 2-D, constant coefficients, a value on every edge, an even cell count
- *   with no prime factor above 5 on at least one axis (accuracy 2, no
- *   advection): the
+ *   with no prime factor above 5 on at least one axis (3-D: a value on
+ *   every face, such counts on y and z; accuracy 2, no advection): the
  *   sine-transform direct solver, refined against the matrix to the
  *   tolerance (`sine-transform.ts`).
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
@@ -31,7 +31,7 @@ import { makeOperator } from '../operator/operator.js';
  * Which solver an implicit step uses: 'auto' (module doc), 'direct',
  * 'sine-transform' (constant-coefficient 2-D plates with a value on every
  * edge and an even cell count with no prime factor above 5 on at least one
- * axis), 'cg' or 'bicgstab'.
+ * axis; 3-D blocks with such counts on y and z), 'cg' or 'bicgstab'.
  */
 export type StepSolver = 'auto' | 'direct' | 'sine-transform' | 'cg' | 'bicgstab';
 
@@ -63,11 +63,11 @@ export function prepareSolve(
 ): PreparedSolve {
   const n = k.rows;
   let method = options.solver;
-  const sine = (method === 'auto' || method === 'sine-transform') && symmetric && g.dimension === 2 && g.axes.every((a) => a.uniform)
+  const sine = (method === 'auto' || method === 'sine-transform') && symmetric && g.dimension >= 2 && g.axes.every((a) => a.uniform)
     ? sineStencil(g.shape, k, prescribed) : undefined;
   if (method === 'sine-transform') {
     if (sine === undefined) {
-      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform 2-D grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis, a value on every edge, constant coefficients, accuracy 2 and no advection; use auto or cg');
+      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant coefficients, accuracy 2 and no advection; use auto or cg');
     }
   }
   if (method === 'auto') method = g.dimension === 1 ? 'direct' : sine !== undefined ? 'sine-transform' : symmetric ? 'cg' : 'bicgstab';

@@ -25,6 +25,9 @@ function relativeDifference(a: ArrayLike<number>, b: ArrayLike<number>): number 
   return diff / big;
 }
 
+const allFaces = (v: number | ((...c: number[]) => number) = 0) =>
+  [{ faces: ['xmin', 'xmax', 'ymin', 'ymax', 'zmin', 'zmax'] as const, kind: 'dirichlet' as const, value: v }];
+
 function residual(a: CsrMatrix, x: Float64Array, b: Float64Array): number {
   let rr = 0;
   let bb = 0;
@@ -125,7 +128,7 @@ describe('sineStencil: which matrices the transform solves', () => {
     expect(s!.d).toBeCloseTo(-2 * (s!.wx + s!.wy), 12);
   });
 
-  it('refuses cell counts the FFT does not take (odd, or a prime factor above 5), a flux or convection edge, variable k, 3-D and accuracy 4', () => {
+  it('refuses cell counts the FFT does not take (odd, or a prime factor above 5; in 3-D on y or z), a flux or convection edge, variable k and accuracy 4', () => {
     const check = (g: ReturnType<typeof grid>, opts: Parameters<typeof discretize>[1]) => {
       const d = discretize(g, opts);
       return sineStencil(g.shape, d.system({}).matrix.matrix, Uint8Array.from(d.prescribed));
@@ -142,9 +145,15 @@ describe('sineStencil: which matrices the transform solves', () => {
     })).toBeUndefined();
     expect(check(sq(16), { conductivity: (x: number) => 1 + x, boundary: allValue() })).toBeUndefined();
     expect(check(sq(16), { accuracy: 4, boundary: allValue() })).toBeUndefined();
-    const g3 = grid({ x: { from: 0, to: 1, cells: 4 }, y: { from: 0, to: 1, cells: 4 }, z: { from: 0, to: 1, cells: 4 } });
-    const d3 = discretize(g3, { boundary: [{ faces: ['xmin', 'xmax', 'ymin', 'ymax', 'zmin', 'zmax'], kind: 'dirichlet', value: 0 }] });
-    expect(sineStencil(g3.shape, d3.system({}).matrix.matrix, Uint8Array.from(d3.prescribed))).toBeUndefined();
+    // 3-D: y and z must both suit (x carries the lines)
+    const block = (cx: number, cy: number, cz: number) => {
+      const g3 = grid({ x: { from: 0, to: 1, cells: cx }, y: { from: 0, to: 1, cells: cy }, z: { from: 0, to: 1, cells: cz } });
+      const d3 = discretize(g3, { boundary: allFaces() });
+      return sineStencil(g3.shape, d3.system({}).matrix.matrix, Uint8Array.from(d3.prescribed));
+    };
+    expect(block(7, 4, 4)).toBeDefined();
+    expect(block(4, 7, 4)).toBeUndefined();
+    expect(block(4, 4, 9)).toBeUndefined();
   });
 });
 
@@ -213,6 +222,34 @@ describe('the sine-transform solve', () => {
     }
   });
 
+  it('3-D blocks: a sine transform over y and z, lines along x; the cube centre with one face at 1 and five at 0 is exactly 1/6 (superposition, as in 2-D)', () => {
+    for (const cells of [2, 4, 6, 8, 10, 12, 16]) {
+      const g = grid({ x: { from: 0, to: 1, cells }, y: { from: 0, to: 1, cells }, z: { from: 0, to: 1, cells } });
+      const r = solveSteady({
+        grid: g,
+        boundary: [{ faces: ['zmax'], kind: 'dirichlet', value: 1 }, { faces: ['xmin', 'xmax', 'ymin', 'ymax', 'zmin'], kind: 'dirichlet', value: 0 }],
+      }, { tolerance: 1e-14 });
+      expect(r.solver).toBe('sine-transform');
+      const c = cells / 2;
+      expect(Math.abs(r.field.get(c, c, c) - 1 / 6), `${cells}³`).toBeLessThan(16 * EPS * cells * cells);
+    }
+    // unequal sizes and spacings, a source and a varying edge value, against multigrid-preconditioned CG
+    for (const [cx, cy, cz] of [[5, 4, 6], [3, 10, 2], [9, 8, 12], [12, 2, 20]] as const) {
+      const g = grid({ x: { from: 0, to: 0.7, cells: cx }, y: { from: -0.2, to: 0.5, cells: cy }, z: { from: 1, to: 2.1, cells: cz } });
+      const problem = {
+        grid: g,
+        conductivity: 2.2,
+        source: (x: number, y: number, z: number) => Math.cos(2 * x + y - z),
+        boundary: allFaces((x: number, y: number, z: number) => x * y - z),
+      };
+      const a = solveSteady(problem, { tolerance: 1e-13 });
+      const b = solveSteady(problem, { tolerance: 1e-13, solver: { method: 'cg', preconditioner: 'multigrid' } });
+      expect(a.solver).toBe('sine-transform');
+      expect(a.iterations, `${cx} × ${cy} × ${cz}`).toBe(1);
+      expect(relativeDifference(a.field.data, b.field.data), `${cx} × ${cy} × ${cz}`).toBeLessThan(1e-10);
+    }
+  });
+
   it('refuses a stencil that is not diagonally dominant (Thomas without pivoting needs it)', () => {
     const g = grid({ x: { from: 0, to: 1, cells: 8 }, y: { from: 0, to: 1, cells: 8 } });
     const d = discretize(g, { boundary: allValue() });
@@ -273,6 +310,13 @@ describe('the sine-transform solve', () => {
     const c = solveTransient(problem, be);
     const e = solveTransient(problem, { ...be, solver: 'cg' });
     expect(c.iterations).toBe(c.steps);
+    // and a 3-D block's Crank–Nicolson steps
+    const g3 = grid({ x: { from: 0, to: 1, cells: 6 }, y: { from: 0, to: 1, cells: 8 }, z: { from: 0, to: 2, cells: 10 } });
+    const cube = { grid: g3, initial: (x: number, y: number, z: number) => x * (1 - x) * y * (1 - y) * z * (2 - z), boundary: allFaces() };
+    const p3 = solveTransient(cube, opts);
+    const q3 = solveTransient(cube, { ...opts, solver: 'cg' });
+    expect([p3.solver, q3.solver]).toEqual(['sine-transform', 'cg+multigrid']);
+    expect(relativeDifference(p3.field.data, q3.field.data)).toBeLessThan(1e-10);
     diff = 0;
     for (let i = 0; i < g.size; i++) diff = Math.max(diff, Math.abs(c.field.data[i]! - e.field.data[i]!));
     expect(diff).toBeLessThan(1e-12);
