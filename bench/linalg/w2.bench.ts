@@ -274,7 +274,7 @@ export const cases: readonly BenchCase[] = [
     run: (ctx) => runW2(ctx, [n]),
   })),
   ...W2_3D_SIZES.map((n): BenchCase => ({
-    id: 'W2-3D', name: `W2-3D-mg-${n}`, group: 'linalg', title: `3-D Poisson n=${n}: multigrid PCG, V-cycles`,
+    id: 'W2-3D', name: `W2-3D-mg-${n}`, group: 'linalg', title: `3-D Poisson n=${n}: multigrid PCG, V-cycles, sine transform`,
     run: (ctx) => runW2x3D(ctx, [n]),
   })),
 ];

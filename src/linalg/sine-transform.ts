@@ -33,9 +33,10 @@
  * Which matrices qualify: the grid is 2-D with N + 1 = cells such a count
  * on at least one axis (3-D: on y and z), exactly the boundary ring is prescribed with
  * identity rows, every interior row holds the same symmetric stencil d, w_x
- * (±x), w_y (±y) up to τ = 4ε·max(N_x, N_y, 16)·|d| (coordinates that are
- * not binary fractions make the spacings differ in the last bits, by about
- * 0.1–0.3·N·ε relative), with no entries in prescribed columns, and the
+ * (±x), w_y (±y) up to τ = 4ε·max(16, S)·|d|, S the largest over the axes
+ * of cells·max(1, max|x|/L) (coordinates that are not binary fractions make
+ * the spacings differ in the last bits, by about 0.1–0.3·ε·N·max|x|/L
+ * relative), with no entries in prescribed columns, and the
  * stencil is diagonally dominant, |d| ≥ 2|w_x| + 2|w_y| − τ (every
  * conduction and implicit-step stencil is). Then each mode's line system
  * has |d + 2w_t cos(qπ/(N_t+1))| ≥ 2|w_l| + 2|w_t|(1 − cos(π/(N_t+1))) − τ,
@@ -73,12 +74,30 @@ function transformable(cells: number): boolean {
 }
 
 /**
- * The stencil of `a` when the sine-transform solver applies to it (module
- * doc), else undefined. O(nnz).
+ * How far the stencils of a uniform grid may differ by the rounding of its
+ * coordinates, in units of ε·|d|/4: the largest over the axes of
+ * cells·max(1, max(|from|, |to|)/(to − from)) (spacings are differences of
+ * coordinates, whose rounding is ε·max|x|, against h = L/cells).
  *
  * @internal
  */
-export function sineStencil(shape: readonly number[], a: CsrMatrix, prescribed: Readonly<Uint8Array>): SineStencil | undefined {
+export function coordinateSpread(axes: readonly { readonly from: number; readonly to: number; readonly cells: number }[]): number {
+  let s = 0;
+  for (const a of axes) s = Math.max(s, a.cells * Math.max(1, Math.max(Math.abs(a.from), Math.abs(a.to)) / (a.to - a.from)));
+  return s;
+}
+
+/**
+ * The stencil of `a` when the sine-transform solver applies to it (module
+ * doc), else undefined. O(nnz). `spread` is {@link coordinateSpread} of the
+ * grid (default: the longest axis's node count, right for coordinates of
+ * the order of the domain's length).
+ *
+ * @internal
+ */
+export function sineStencil(
+  shape: readonly number[], a: CsrMatrix, prescribed: Readonly<Uint8Array>, spread = Math.max(...shape),
+): SineStencil | undefined {
   const dim = shape.length;
   if (dim !== 2 && dim !== 3) return undefined;
   if (shape.some((m) => !(m >= 3))) return undefined;
@@ -105,8 +124,8 @@ export function sineStencil(shape: readonly number[], a: CsrMatrix, prescribed: 
   for (let e = 0; e < dim; e++) if (shape[e] === 3) w[e] = 0;
   if (!(Number.isFinite(d) && w.every(Number.isFinite)) || d === 0) return undefined;
   // coordinates that are not binary fractions make the spacings, and so the stencils, differ by about
-  // 0.1–0.3·N·ε relative (measured up to N = 2000); refinement removes such differences
-  const tol = 64 * Number.EPSILON * Math.abs(d) * Math.max(1, Math.max(...shape) / 16);
+  // 0.1–0.3·ε·N·max|x|/L relative (measured up to N = 2000); refinement removes such differences
+  const tol = 4 * Number.EPSILON * Math.abs(d) * Math.max(16, spread);
   if (Math.abs(d) < 2 * w.reduce((t, v) => t + Math.abs(v), 0) - tol) return undefined;
   // every row, nodes in storage order (2-D as one z layer, so no z neighbours and no z ring)
   const three = dim === 3;
@@ -297,7 +316,7 @@ export function createSineTransformSolver(
         if (rel <= tolerance) return { solves: it, residual: rel, history: history.subarray(0, it + 1) };
         if (!(rel < 1) || it === maxSolves) {
           throw new NotConvergedError('sine-transform', it, rel, tolerance, history.slice(0, it + 1),
-            'the refinement did not reach the tolerance; the matrix is not the constant stencil the transform assumes, use cg');
+            'the refinement did not reach the tolerance: the matrix is not the constant stencil the transform assumes (use cg), or the tolerance is below the round-off of b − Ax for this system');
         }
         direct(r, dx);
         for (let i = 0; i < n; i++) x[i] += dx[i];

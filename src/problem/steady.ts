@@ -41,7 +41,7 @@ import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, jacobiPreconditioner, ssorPreconditioner, type Preconditioner } from '../linalg/preconditioners.js';
 import type { SolveResult } from '../linalg/result.js';
 import { factorTridiagonal, solveTridiagonal } from '../linalg/thomas.js';
-import { createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
+import { coordinateSpread, createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
 
 /** A solver named by method alone: chosen from the problem, or a direct solve. */
 export interface SimpleSolver {
@@ -218,7 +218,7 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
   const uniform = g.axes.every((a) => a.uniform);
   let method: SteadySolver = choice;
   const sine = g.dimension >= 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
-    ? sineStencil(g.shape, system.matrix.matrix, prescribed) : undefined;
+    ? sineStencil(g.shape, system.matrix.matrix, prescribed, coordinateSpread(g.axes)) : undefined;
   if (choice.method === 'sine-transform' && sine === undefined) {
     throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant conductivity and accuracy 2; use auto or cg');
   }

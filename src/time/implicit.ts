@@ -23,7 +23,7 @@ import { bicgstab, conjugateGradient, createKrylovWorkspace } from '../linalg/kr
 import { createMultigrid } from '../linalg/multigrid.js';
 import { incompleteCholesky, incompleteLU, type Preconditioner } from '../linalg/preconditioners.js';
 import { thomasSolve, factorTridiagonal, type TridiagonalFactors } from '../linalg/thomas.js';
-import { createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
+import { coordinateSpread, createSineTransformSolver, sineStencil } from '../linalg/sine-transform.js';
 import type { CsrMatrix } from '../operator/matrix.js';
 import { makeOperator } from '../operator/operator.js';
 
@@ -64,7 +64,7 @@ export function prepareSolve(
   const n = k.rows;
   let method = options.solver;
   const sine = (method === 'auto' || method === 'sine-transform') && symmetric && g.dimension >= 2 && g.axes.every((a) => a.uniform)
-    ? sineStencil(g.shape, k, prescribed) : undefined;
+    ? sineStencil(g.shape, k, prescribed, coordinateSpread(g.axes)) : undefined;
   if (method === 'sine-transform') {
     if (sine === undefined) {
       throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant coefficients, accuracy 2 and no advection; use auto or cg');

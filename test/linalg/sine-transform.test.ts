@@ -83,6 +83,8 @@ describe('fft and dst2 against their defining sums', () => {
     }
     for (const m of [7, 11, 14, 21, 49, 0, 1.5]) expect(fftLength(m), `${m}`).toBe(false);
     expect(fftLength(1)).toBe(true);
+    // a plan is refused for a length it would get wrong
+    for (const m of [1, 7, 14]) expect(() => fftPlan(m)).toThrow(expect.objectContaining({ code: 'INVALID_OPTION' }));
   });
 
   it('dst2 gives S_k = Σ x_j sin(πjk/N) for both sequences, N = 2 … 128 (powers of 2 and mixed 6 … 120), in place and strided', () => {
@@ -209,6 +211,15 @@ describe('the sine-transform solve', () => {
     }
   });
 
+  it('accepts a plate far from the origin, whose spacings jitter by ε·max|x|/h rather than ε·N', () => {
+    const g = grid({ x: { from: 10.1, to: 10.8, cells: 64 }, y: { from: -3.3, to: -3.1, cells: 16 } });
+    const problem = { grid: g, source: 1, boundary: allValue((x: number, y: number) => x + y) };
+    const a = solveSteady(problem, { tolerance: 1e-12 });
+    const b = solveSteady(problem, { tolerance: 1e-12, solver: { method: 'cg', preconditioner: 'multigrid' } });
+    expect(a.solver).toBe('sine-transform');
+    expect(relativeDifference(a.field.data, b.field.data)).toBeLessThan(1e-9);
+  });
+
   it('accepts long axes whose spacings are not binary fractions (stencils differ by about 0.1–0.3·N·ε) and refines them to the tolerance', () => {
     for (const [cx, cy, len] of [[300, 16, 1], [1000, 10, 1], [256, 16, 0.9]] as const) {
       const g = grid({ x: { from: 0, to: len, cells: cx }, y: { from: 0.1, to: 1, cells: cy } });
@@ -310,6 +321,18 @@ describe('the sine-transform solve', () => {
     const c = solveTransient(problem, be);
     const e = solveTransient(problem, { ...be, solver: 'cg' });
     expect(c.iterations).toBe(c.steps);
+    // time-dependent edge values and a source, with Rannacher start-up (backward-Euler half steps, a second level)
+    const heated = {
+      grid: g,
+      initial: 0,
+      source: (x: number, y: number, t: number) => 50 * Math.exp(-t) * x * y,
+      boundary: allValue((x: number, y: number, t: number) => Math.sin(3 * t) * (1 + x - y)),
+    };
+    const hs = { scheme: 'crank-nicolson' as const, dt: 2e-3, endTime: 0.04, tolerance: 1e-12, rannacherSteps: 2 };
+    const h1 = solveTransient(heated, hs);
+    const h2 = solveTransient(heated, { ...hs, solver: 'cg' });
+    expect(h1.solver).toBe('sine-transform');
+    expect(relativeDifference(h1.field.data, h2.field.data)).toBeLessThan(1e-10);
     // and a 3-D block's Crank–Nicolson steps
     const g3 = grid({ x: { from: 0, to: 1, cells: 6 }, y: { from: 0, to: 1, cells: 8 }, z: { from: 0, to: 2, cells: 10 } });
     const cube = { grid: g3, initial: (x: number, y: number, z: number) => x * (1 - x) * y * (1 - y) * z * (2 - z), boundary: allFaces() };

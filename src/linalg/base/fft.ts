@@ -36,6 +36,7 @@
  * @module
  * @internal
  */
+import { InvalidOptionError } from '../../errors.js';
 
 /** One pass of the mixed-radix FFT (see {@link fftMixed}). @internal */
 export interface MixedStage {
@@ -79,6 +80,7 @@ export function fftLength(m: number): boolean {
 
 /** The tables for length m (a power of 2 with m ≥ 2, or any m ≥ 2 with {@link fftLength}). @internal */
 export function fftPlan(m: number): FftPlan {
+  if (!(m >= 2 && fftLength(m))) throw new InvalidOptionError('length', `no FFT plan for ${m}: give m ≥ 2 with no prime factor but 2, 3 and 5`);
   if ((m & (m - 1)) !== 0) return mixedPlan(m);
   let bits = 0;
   while ((1 << bits) < m) bits++;
