@@ -1,11 +1,11 @@
 /**
  * A fast direct solver for the constant-coefficient five-point systems of
- * 2-D plates with a prescribed value on every edge (and the seven-point
- * systems of 3-D blocks with one on every face), by the discrete sine
- * transform along one axis (two in 3-D) and tridiagonal solves along the
- * other.
+ * 2-D plates (and the seven-point systems of 3-D blocks) with prescribed
+ * values across one axis (y and z in 3-D) and values or fluxes on the other
+ * faces, by the discrete sine transform along the valued axis (two in 3-D)
+ * and tridiagonal solves along the other.
  *
- * Such a system, on the nodes of an NX × NY grid with the boundary ring
+ * Such a system, on the nodes of an NX × NY grid with the value faces
  * prescribed (identity rows, columns eliminated), is on the interior the
  * Kronecker sum K = d·I + w_x·T_x + w_y·T_y, T the 0/1 neighbour matrices of
  * one axis. The eigenvectors of T_y are sin(qπj/(N_y+1)) (N the interior
@@ -18,37 +18,49 @@
  * (scaled by 2/(N_y+1)) maps û back: O(N log N) work, no iteration. This is
  * the Fourier-analysis/cyclic-reduction method with no reduction step,
  * FACR(0). Source: Hockney, R. W. (1965). A fast direct solution of
- * Poisson's equation using Fourier analysis. J. ACM 12(1), 95–113; Swarztrauber,
- * P. N. (1977). The methods of cyclic reduction, Fourier analysis and the
- * FACR algorithm for the discrete solution of Poisson's equation on a
- * rectangle. SIAM Review 19(3), 490–501; the eigenpairs of the 1-D second
- * difference are a fact of the trade (e.g. LeVeque 2007, §2.10). The
- * transformed axis is y when its cell count suits the FFT (even, with no
- * prime factor but 2, 3 and 5: 2ᵏ, 10, 12, 100, 120, 240, …; y is the axis
- * contiguous in memory), else x, the interior then being held transposed.
- * In 3-D the same holds with a 2-D DST-I over y and z (both must suit) in
- * each x-plane and lines along x, diagonal d + 2w_y cos(qπ/(N_y+1)) +
- * 2w_z cos(rπ/(N_z+1)).
+ * Poisson's equation using Fourier analysis. J. ACM 12(1), 95–113;
+ * Swarztrauber, P. N. (1977). The methods of cyclic reduction, Fourier
+ * analysis and the FACR algorithm for the discrete solution of Poisson's
+ * equation on a rectangle. SIAM Review 19(3), 490–501; the eigenpairs of the
+ * 1-D second difference are a fact of the trade (e.g. LeVeque 2007, §2.10).
+ * The transformed axis is y when it has values at both ends and a cell count
+ * that suits the FFT (even, with no prime factor but 2, 3 and 5: 2ᵏ, 10,
+ * 12, 100, 120, 240, …; y is the axis contiguous in memory), else x, the
+ * interior then being held transposed. In 3-D the same holds with a 2-D
+ * DST-I over y and z (both must suit) in each x-plane and lines along x,
+ * diagonal d + 2w_y cos(qπ/(N_y+1)) + 2w_z cos(rπ/(N_z+1)).
  *
- * Which matrices qualify: the grid is 2-D with N + 1 = cells such a count
- * on at least one axis (3-D: on y and z), exactly the boundary ring is prescribed with
- * identity rows, every interior row holds the same symmetric stencil d, w_x
- * (±x), w_y (±y) up to τ = 4ε·max(16, S)·|d|, S the largest over the axes
- * of cells·max(1, max|x|/L) (coordinates that are not binary fractions make
- * the spacings differ in the last bits, by about 0.1–0.3·ε·N·max|x|/L
- * relative), with no entries in prescribed columns, and the
- * stencil is diagonally dominant, |d| ≥ 2|w_x| + 2|w_y| − τ (every
- * conduction and implicit-step stencil is). Then each mode's line system
- * has |d + 2w_t cos(qπ/(N_t+1))| ≥ 2|w_l| + 2|w_t|(1 − cos(π/(N_t+1))) − τ,
- * dominant (strictly so unless w_t = 0, and nonsingular either way), and
+ * A flux face (insulated or with a given flux) at an end of the lines axis
+ * keeps its nodes as unknowns. In the volume-scaled rows of the conservative
+ * discretisation such a node has half the volume and half the transverse
+ * face areas: its row is d/2 at the centre, w_l to its neighbour along the
+ * lines and w_t/2 to the transverse ones. After the transform its line row
+ * is therefore ½(d + 2w_t cos(qπ/(N_t+1)))·û_0 + w_l·û_1: half the
+ * diagonal, the same off-diagonal, and the line systems stay symmetric and
+ * dominant. (The flux itself only enters the right-hand side.)
+ *
+ * Which matrices qualify: the grid is 2-D with values on both faces of an
+ * axis whose N + 1 = cells is such a count (3-D: y and z), values or fluxes
+ * on the other faces (a convection face changes the diagonal and is
+ * refused), value nodes with identity rows, and every other row the same
+ * symmetric stencil d, w_x (±x), w_y (±y) (half weights on flux faces as
+ * above) up to τ = 4ε·max(16, S)·|d|, S the largest over the axes of
+ * cells·max(1, max|x|/L) (coordinates that are not binary fractions make the
+ * spacings differ in the last bits, by about 0.1–0.3·ε·N·max|x|/L relative),
+ * with no entries in prescribed columns, and the stencil diagonally
+ * dominant, |d| ≥ 2|w_x| + 2|w_y| − τ (every conduction and implicit-step
+ * stencil is). Then each mode's line system has |d + 2w_t cos(qπ/(N_t+1))|
+ * ≥ 2|w_l| + 2|w_t|(1 − cos(π/(N_t+1))) − τ, dominant (strictly so unless
+ * w_t = 0, and nonsingular either way; at a flux end ½|diag| ≥ |w_l|), and
  * Thomas without pivoting is stable for it (a fact of the trade for
  * diagonally dominant tridiagonal systems; e.g. Higham, N. J. (2002).
  * Accuracy and Stability of Numerical Algorithms, 2nd ed., SIAM, ch. 9,
  * from memory); in 3-D w_z joins the sums. Those small differences, and
- * round-off, are removed by iterative refinement: after each transform solve the true residual b − A x is
- * computed with A itself and, while above the tolerance, solved for again
- * (at most 4 more solves), so the answer is the matrix's own to the
- * requested relative residual, as with the iterative solvers.
+ * round-off, are removed by iterative refinement: after each transform
+ * solve the true residual b − A x is computed with A itself and, while above
+ * the tolerance, solved for again (at most 4 more solves), so the answer is
+ * the matrix's own to the requested relative residual, as with the
+ * iterative solvers.
  *
  * @module
  */
@@ -66,6 +78,18 @@ export interface SineStencil {
   readonly wy: number;
   /** 3-D: the weight of either z neighbour. */
   readonly wz?: number;
+  /**
+   * The axis of the tridiagonal lines (2-D: 0 for x, 1 for y; 3-D: always
+   * 0); the others are transformed. Default: x when y's cell count suits
+   * the transform, else y (3-D: x).
+   */
+  readonly lines?: number;
+  /**
+   * Whether the lines axis ends in a flux face (its nodes unknown, rows of
+   * half weight: centre d/2, transverse neighbours w/2) at its low and high
+   * end, instead of a value face. Default false.
+   */
+  readonly fluxEnds?: readonly [boolean, boolean];
 }
 
 /** Whether an axis of `cells` cells can be transformed: even, with no prime factor other than 2, 3 and 5. */
@@ -101,70 +125,100 @@ export function sineStencil(
   const dim = shape.length;
   if (dim !== 2 && dim !== 3) return undefined;
   if (shape.some((m) => !(m >= 3))) return undefined;
-  // 2-D: either axis transformed; 3-D: y and z (the two fastest in memory), lines along x
-  const ok = dim === 2
-    ? transformable(shape[0]! - 1) || transformable(shape[1]! - 1)
-    : transformable(shape[1]! - 1) && transformable(shape[2]! - 1);
   const n = shape.reduce((p, m) => p * m, 1);
-  if (!ok || a.rows !== n) return undefined;
-  const stride = dim === 2 ? [shape[1]!, 1] : [shape[1]! * shape[2]!, shape[2]!, 1];
-  const { rowPtr, colIdx, values } = a;
-  // the stencil of the middle interior row
-  let mid = 0;
-  for (let e = 0; e < dim; e++) mid += (shape[e]! >> 1) * stride[e]!;
-  let d = NaN;
-  const w = new Array<number>(dim).fill(NaN);
-  for (let p = rowPtr[mid]; p < rowPtr[mid + 1]; p++) {
-    const c = colIdx[p] - mid;
-    if (c === 0) d = values[p];
-    // either side: with two interior nodes along an axis the middle one has a single neighbour there
-    for (let e = 0; e < dim; e++) if (c === stride[e] || c === -stride[e]!) w[e] = values[p];
-  }
-  // one interior node across an axis: no neighbour entries there, and cos(π/2) = 0 drops the weight anyway
-  for (let e = 0; e < dim; e++) if (shape[e] === 3) w[e] = 0;
-  if (!(Number.isFinite(d) && w.every(Number.isFinite)) || d === 0) return undefined;
-  // coordinates that are not binary fractions make the spacings, and so the stencils, differ by about
-  // 0.1–0.3·ε·N·max|x|/L relative (measured up to N = 2000); refinement removes such differences
-  const tol = 4 * Number.EPSILON * Math.abs(d) * Math.max(16, spread);
-  if (Math.abs(d) < 2 * w.reduce((t, v) => t + Math.abs(v), 0) - tol) return undefined;
-  // every row, nodes in storage order (2-D as one z layer, so no z neighbours and no z ring)
+  if (a.rows !== n) return undefined;
   const three = dim === 3;
   const nx = shape[0]!;
   const ny = shape[1]!;
   const nz = three ? shape[2]! : 1;
   const sx = ny * nz;
   const sy = nz;
-  const wx = w[0]!;
-  const wy = w[1]!;
-  const wz = three ? w[2]! : 0;
+  // what each face is, read at its middle node: value (prescribed) or flux (unknown)
+  const mid3 = (i: number, j: number, k: number): number => (i * ny + j) * nz + k;
+  const cx = nx >> 1;
+  const cy = ny >> 1;
+  const cz = three ? nz >> 1 : 0;
+  const valueX = [prescribed[mid3(0, cy, cz)] === 1, prescribed[mid3(nx - 1, cy, cz)] === 1];
+  const valueY = [prescribed[mid3(cx, 0, cz)] === 1, prescribed[mid3(cx, ny - 1, cz)] === 1];
+  const valueZ = three ? [prescribed[mid3(cx, cy, 0)] === 1, prescribed[mid3(cx, cy, nz - 1)] === 1] : [true, true];
+  // transformed axes: a value face at both ends and a cell count the FFT takes; lines: the other axis
+  const suits = (value: boolean[], m: number): boolean => value[0]! && value[1]! && transformable(m - 1);
+  let lines: number;
+  if (three) {
+    if (!(suits(valueY, ny) && suits(valueZ, nz))) return undefined;
+    lines = 0;
+  } else if (suits(valueY, ny)) {
+    lines = 0;
+  } else if (suits(valueX, nx)) {
+    lines = 1;
+  } else {
+    return undefined;
+  }
+  const value = [valueX, valueY, valueZ];
+  const lineValue = value[lines]!;
+  const { rowPtr, colIdx, values } = a;
+  // the stencil of the middle row (an interior node)
+  const mid = mid3(cx, cy, cz);
+  let d = NaN;
+  const w = [NaN, NaN, three ? NaN : 0];
+  const stride = [sx, sy, 1];
+  for (let p = rowPtr[mid]; p < rowPtr[mid + 1]; p++) {
+    const c = colIdx[p] - mid;
+    if (c === 0) d = values[p];
+    // either side: with two interior nodes along an axis the middle one has a single neighbour there
+    for (let e = 0; e < dim; e++) if (c === stride[e] || c === -stride[e]!) w[e] = values[p];
+  }
+  // one unknown node across an axis: no neighbour entries there, and the weight drops out (cos(π/2) = 0 for a
+  // transformed axis, a 1 × 1 line system for the lines axis)
+  for (let e = 0; e < dim; e++) if (shape[e] === 3 && Number.isNaN(w[e]!)) w[e] = 0;
+  if (!(Number.isFinite(d) && w.every(Number.isFinite)) || d === 0) return undefined;
+  // coordinates that are not binary fractions make the spacings, and so the stencils, differ by about
+  // 0.1–0.3·ε·N·max|x|/L relative (measured up to N = 2000); refinement removes such differences
+  const tol = 4 * Number.EPSILON * Math.abs(d) * Math.max(16, spread);
+  if (Math.abs(d) < 2 * (Math.abs(w[0]!) + Math.abs(w[1]!) + Math.abs(w[2]!)) - tol) return undefined;
+  const [wx, wy, wz] = w as [number, number, number];
+  // every row, nodes in storage order (2-D as one z layer, so no z neighbours and no z faces)
+  const onValue = (e: number, i: number, m: number): boolean => (i === 0 && value[e]![0]!) || (i === m - 1 && value[e]![1]!);
   let r = 0;
   for (let i = 0; i < nx; i++) {
+    const vi = onValue(0, i, nx);
     for (let j = 0; j < ny; j++) {
+      const vj = onValue(1, j, ny);
       for (let k = 0; k < nz; k++, r++) {
         const s = rowPtr[r];
         const end = rowPtr[r + 1];
-        const ring = i === 0 || i === nx - 1 || j === 0 || j === ny - 1 || (three && (k === 0 || k === nz - 1));
-        if (ring) {
+        if (vi || vj || (three && onValue(2, k, nz))) {
           if (prescribed[r] !== 1 || end - s !== 1 || colIdx[s] !== r || values[s] !== 1) return undefined;
           continue;
         }
         if (prescribed[r] !== 0) return undefined;
-        // the centre and the neighbours off the boundary ring, nothing else
-        const expected = 1 + (i > 1 ? 1 : 0) + (i < nx - 2 ? 1 : 0) + (j > 1 ? 1 : 0) + (j < ny - 2 ? 1 : 0) +
-          (three ? (k > 1 ? 1 : 0) + (k < nz - 2 ? 1 : 0) : 0);
+        // a node on a flux end of the lines axis: its row has half weights except along the lines
+        const li = lines === 0 ? i : j;
+        const lm = lines === 0 ? nx : ny;
+        const flux = li === 0 || li === lm - 1;
+        const half = flux ? 0.5 : 1;
+        // the neighbours present: inside the grid and not on a value face (those columns are eliminated)
+        const has = (e: number, idx: number, m: number, side: number): boolean => {
+          const q = idx + side;
+          return q >= 0 && q < m && !onValue(e, q, m);
+        };
+        const expected = 1 + (has(0, i, nx, -1) ? 1 : 0) + (has(0, i, nx, 1) ? 1 : 0) + (has(1, j, ny, -1) ? 1 : 0) + (has(1, j, ny, 1) ? 1 : 0) +
+          (three ? (has(2, k, nz, -1) ? 1 : 0) + (has(2, k, nz, 1) ? 1 : 0) : 0);
+        const fx = lines === 0 ? 1 : half;
+        const fy = lines === 1 ? 1 : half;
         let count = 0;
         for (let p = s; p < end; p++) {
           const c = colIdx[p] - r;
           const v = values[p];
           if (v === 0) continue;
           if (c === 0) {
-            if (!(Math.abs(v - d) <= tol)) return undefined;
+            if (!(Math.abs(v - half * d) <= tol)) return undefined;
           } else if (c === sx || c === -sx) {
-            if (!(Math.abs(v - wx) <= tol) || (c < 0 ? i === 1 : i === nx - 2)) return undefined;
+            if (!(Math.abs(v - fx * wx) <= tol) || !has(0, i, nx, c < 0 ? -1 : 1)) return undefined;
           } else if (c === sy || c === -sy) {
-            if (!(Math.abs(v - wy) <= tol) || (c < 0 ? j === 1 : j === ny - 2)) return undefined;
+            if (!(Math.abs(v - fy * wy) <= tol) || !has(1, j, ny, c < 0 ? -1 : 1)) return undefined;
           } else if (three && (c === 1 || c === -1)) {
-            if (!(Math.abs(v - wz) <= tol) || (c < 0 ? k === 1 : k === nz - 2)) return undefined;
+            if (!(Math.abs(v - half * wz) <= tol) || !has(2, k, nz, c)) return undefined;
           } else {
             return undefined;
           }
@@ -174,7 +228,8 @@ export function sineStencil(
       }
     }
   }
-  return dim === 2 ? { d, wx: w[0]!, wy: w[1]! } : { d, wx: w[0]!, wy: w[1]!, wz: w[2]! };
+  const fluxEnds: [boolean, boolean] = [!lineValue[0], !lineValue[1]];
+  return three ? { d, wx, wy, wz, lines, fluxEnds } : { d, wx, wy, lines, fluxEnds };
 }
 
 /** Σ vᵢ², in four partial sums (not one chain of dependent additions). */
@@ -214,17 +269,31 @@ export interface SineTransformSolver {
 }
 
 /**
- * Inverse Thomas pivots of the line systems (diag_q on the diagonal, w_l off
- * it) of every mode q at every line position i, pivot[i·modes + q], kept
- * only while they change: from row `kept` on, every pivot equals row
- * kept − 1 bit for bit (the recurrence reached its fixed point in every mode).
+ * The Thomas factors of the line systems of every mode q: diag_q on the
+ * diagonal (half of it at a flux end), w_l off it. `pivot[i·modes + q]` is
+ * the inverse pivot at line position i for i < kept; from row `kept` on
+ * every pivot equals row kept − 1 bit for bit (the recurrence reached its
+ * fixed point in every mode), except the last position of a line ending in
+ * a flux face, whose own row is `last`.
  */
-function linePivots(diag: Float64Array, wl: number, lines: number): { pivot: Float64Array; kept: number } {
+interface LineFactors {
+  readonly modes: number;
+  readonly lines: number;
+  readonly wl: number;
+  readonly pivot: Float64Array;
+  readonly kept: number;
+  readonly last: Float64Array | undefined;
+}
+
+function lineFactors(diag: Float64Array, wl: number, lines: number, fluxEnds: readonly [boolean, boolean]): LineFactors {
   const modes = diag.length;
   const table = new Float64Array(lines * modes);
-  for (let q = 0; q < modes; q++) table[q] = 1 / diag[q];
+  const first = fluxEnds[0] ? 0.5 : 1;
+  for (let q = 0; q < modes; q++) table[q] = 1 / (first * diag[q]);
+  // the positions before the last, or all of them when the line ends in a value face
+  const regular = fluxEnds[1] ? lines - 1 : lines;
   let kept = 1;
-  while (kept < lines) {
+  while (kept < regular) {
     const o = kept * modes;
     let same = true;
     for (let q = 0; q < modes; q++) {
@@ -235,48 +304,54 @@ function linePivots(diag: Float64Array, wl: number, lines: number): { pivot: Flo
     if (same) break;
     kept++;
   }
-  return { pivot: kept === lines ? table : table.slice(0, kept * modes), kept };
+  let last: Float64Array | undefined;
+  if (fluxEnds[1] && lines > 1) {
+    last = new Float64Array(modes);
+    const before = (Math.min(lines - 2, kept - 1)) * modes;
+    for (let q = 0; q < modes; q++) last[q] = 1 / (0.5 * diag[q] - wl * wl * table[before + q]);
+  }
+  return { modes, lines, wl, pivot: kept === lines ? table : table.slice(0, kept * modes), kept, last };
 }
 
 /** Forward elimination of line position l of w, all modes at once: ĝ_l = (f̂_l − w_l·ĝ_{l−1})·pivot_l. */
-function eliminate(w: Float64Array, l: number, modes: number, wl: number, pivot: Float64Array, kept: number): void {
+function eliminate(w: Float64Array, l: number, f: LineFactors): void {
+  const { modes, wl, pivot, kept, last } = f;
   const o = l * modes;
-  const po = Math.min(l, kept - 1) * modes;
   if (l === 0) {
     for (let q = 0; q < modes; q++) w[q] *= pivot[q];
+  } else if (last !== undefined && l === f.lines - 1) {
+    for (let q = 0; q < modes; q++) w[o + q] = (w[o + q] - wl * w[o - modes + q]) * last[q];
   } else {
+    const po = Math.min(l, kept - 1) * modes;
     for (let q = 0; q < modes; q++) w[o + q] = (w[o + q] - wl * w[o - modes + q]) * pivot[po + q];
   }
 }
 
-/** Back substitution of line position l: û_l = ĝ_l − w_l·pivot_l·û_{l+1}, û_{l+1} at from[fo …]. */
-function substitute(w: Float64Array, l: number, modes: number, wl: number, pivot: Float64Array, kept: number, from: Float64Array, fo: number): void {
+/** Back substitution of line position l < lines − 1: û_l = ĝ_l − w_l·pivot_l·û_{l+1}, û_{l+1} at from[fo …]. */
+function substitute(w: Float64Array, l: number, f: LineFactors, from: Float64Array, fo: number): void {
+  const { modes, wl, pivot, kept } = f;
   const o = l * modes;
   const po = Math.min(l, kept - 1) * modes;
   for (let q = 0; q < modes; q++) w[o + q] -= wl * pivot[po + q] * from[fo + q];
 }
 
-/** Copies the boundary ring (every node with an index 0 or last) of src into out. */
-function copyRing(shape: readonly number[], src: Float64Array, out: Float64Array): void {
-  const n = src.length;
-  const last = shape[shape.length - 1]!;
-  const inner = shape.length === 2 ? [shape[0]!] : [shape[0]!, shape[1]!];
-  // rows along the last axis: whole rows on the ring, else their two ends
-  for (let row = 0, r = 0; r < n; row++, r += last) {
-    let onRing = false;
-    let rest = row;
-    for (let e = inner.length - 1; e >= 0; e--) {
-      const i = rest % inner[e]!;
-      rest = (rest - i) / inner[e]!;
-      if (i === 0 || i === inner[e]! - 1) onRing = true;
-    }
-    if (onRing) {
-      for (let k = 0; k < last; k++) out[r + k] = src[r + k];
-    } else {
-      out[r] = src[r];
-      out[r + last - 1] = src[r + last - 1];
+/** The nodes on value faces (prescribed, copied from src to out by every solve). */
+function valueNodes(shape: readonly number[], s: SineStencil, lines: number): Int32Array {
+  const three = shape.length === 3;
+  const [nx, ny] = shape as [number, number];
+  const nz = three ? shape[2]! : 1;
+  const flux = s.fluxEnds ?? [false, false];
+  const out: number[] = [];
+  const onValue = (e: number, i: number, m: number): boolean =>
+    (i === 0 || i === m - 1) && !(e === lines && (i === 0 ? flux[0] : flux[1]));
+  for (let i = 0, r = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      for (let k = 0; k < nz; k++, r++) {
+        if (onValue(0, i, nx) || onValue(1, j, ny) || (three && onValue(2, k, nz))) out.push(r);
+      }
     }
   }
+  return Int32Array.from(out);
 }
 
 /**
@@ -325,15 +400,18 @@ export function createSineTransformSolver(
   };
 }
 
-/** out ← A⁻¹ src by the transforms on a 2-D plate (ring entries copied). */
+/** out ← A⁻¹ src by the transforms on a 2-D plate (value-face entries copied). */
 function direct2(shape: readonly number[], s: SineStencil): (src: Float64Array, out: Float64Array) => void {
   const [nx, ny] = shape as [number, number];
-  const mx = nx - 2;
-  const my = ny - 2;
   // t: the transformed axis, fastest in w; l: the axis of the tridiagonal lines
-  const alongY = transformable(ny - 1);
-  const mt = alongY ? my : mx;
-  const ml = alongY ? mx : my;
+  const lines = s.lines ?? (transformable(ny - 1) ? 0 : 1);
+  const alongY = lines === 0;
+  const flux = s.fluxEnds ?? [false, false];
+  const nl = alongY ? nx : ny;
+  const mt = (alongY ? ny : nx) - 2;
+  // line position l is grid index l + first along the lines axis
+  const first = flux[0] ? 0 : 1;
+  const ml = nl - first - (flux[1] ? 0 : 1);
   const wt = alongY ? s.wy : s.wx;
   const wl = alongY ? s.wx : s.wy;
   const plan: DstPlan = dstPlan(mt + 1);
@@ -346,27 +424,30 @@ function direct2(shape: readonly number[], s: SineStencil): (src: Float64Array, 
   const scale = 2 / (mt + 1);
   const diag = new Float64Array(mt);
   for (let q = 0; q < mt; q++) diag[q] = s.d + 2 * wt * Math.cos(((q + 1) * Math.PI) / (mt + 1));
-  const { pivot, kept } = linePivots(diag, wl, ml);
+  const f = lineFactors(diag, wl, ml, flux);
+  const fixed = valueNodes(shape, s, lines);
 
-  /** Line l of w ← scale × line l of the interior of src (a row when alongY, else a column). */
+  /** Line l of w ← scale × line l of src inside the transformed axis's value ends (a row when alongY, else a column). */
   function load(src: Float64Array, l: number): void {
     const o = l * mt;
+    const g = l + first;
     if (alongY) {
-      const from = (l + 1) * ny + 1;
+      const from = g * ny + 1;
       for (let t = 0; t < mt; t++) w[o + t] = scale * src[from + t];
     } else {
-      for (let t = 0; t < mt; t++) w[o + t] = scale * src[(t + 1) * ny + 1 + l];
+      for (let t = 0; t < mt; t++) w[o + t] = scale * src[(t + 1) * ny + g];
     }
   }
 
-  /** Line l of the interior of out ← line l of w. */
+  /** Line l of out ← line l of w. */
   function store(out: Float64Array, l: number): void {
     const o = l * mt;
+    const g = l + first;
     if (alongY) {
-      const to = (l + 1) * ny + 1;
+      const to = g * ny + 1;
       for (let t = 0; t < mt; t++) out[to + t] = w[o + t];
     } else {
-      for (let t = 0; t < mt; t++) out[(t + 1) * ny + 1 + l] = w[o + t];
+      for (let t = 0; t < mt; t++) out[(t + 1) * ny + g] = w[o + t];
     }
   }
 
@@ -387,33 +468,36 @@ function direct2(shape: readonly number[], s: SineStencil): (src: Float64Array, 
       load(src, l);
       if (l + 1 < ml) load(src, l + 1);
       transform(l);
-      eliminate(w, l, mt, wl, pivot, kept);
-      if (l + 1 < ml) eliminate(w, l + 1, mt, wl, pivot, kept);
+      eliminate(w, l, f);
+      if (l + 1 < ml) eliminate(w, l + 1, f);
     }
     for (let l = (ml - 1) & ~1; l >= 0; l -= 2) {
       if (l + 1 < ml) {
-        if (l + 2 < ml) substitute(w, l + 1, mt, wl, pivot, kept, keep, 0);
-        substitute(w, l, mt, wl, pivot, kept, w, (l + 1) * mt);
+        if (l + 2 < ml) substitute(w, l + 1, f, keep, 0);
+        substitute(w, l, f, w, (l + 1) * mt);
       }
       keep.set(w.subarray(l * mt, l * mt + mt));
       transform(l);
       store(out, l);
       if (l + 1 < ml) store(out, l + 1);
     }
-    copyRing(shape, src, out);
+    for (let q = 0; q < fixed.length; q++) out[fixed[q]!] = src[fixed[q]!]!;
   };
 }
 
 /**
- * out ← A⁻¹ src by the transforms on a 3-D block (ring entries copied): each
- * x-plane of the interior (y rows of z values, contiguous) takes a 2-D DST-I
- * over (y, z), which leaves one tridiagonal system along x per mode pair
- * (q, r) with diagonal d + 2w_y cos(qπ/(N_y+1)) + 2w_z cos(rπ/(N_z+1));
- * plane by plane as in 2-D.
+ * out ← A⁻¹ src by the transforms on a 3-D block (value-face entries
+ * copied): each x-plane inside the y and z value faces (y rows of z values,
+ * contiguous) takes a 2-D DST-I over (y, z), which leaves one tridiagonal
+ * system along x per mode pair (q, r) with diagonal d + 2w_y cos(qπ/(N_y+1))
+ * + 2w_z cos(rπ/(N_z+1)) (half of it on a flux face); plane by plane as in
+ * 2-D.
  */
 function direct3(shape: readonly number[], s: SineStencil): (src: Float64Array, out: Float64Array) => void {
   const [nx, ny, nz] = shape as [number, number, number];
-  const mx = nx - 2;
+  const flux = s.fluxEnds ?? [false, false];
+  const first = flux[0] ? 0 : 1;
+  const mx = nx - first - (flux[1] ? 0 : 1);
   const my = ny - 2;
   const mz = nz - 2;
   const modes = my * mz;
@@ -431,13 +515,13 @@ function direct3(shape: readonly number[], s: SineStencil): (src: Float64Array, 
   const cz = Float64Array.from({ length: mz }, (_, r) => 2 * wz * Math.cos(((r + 1) * Math.PI) / (mz + 1)));
   const diag = new Float64Array(modes);
   for (let q = 0; q < my; q++) for (let r = 0; r < mz; r++) diag[q * mz + r] = s.d + cy[q] + cz[r];
-  const { pivot, kept } = linePivots(diag, s.wx, mx);
-  const wl = s.wx;
+  const f = lineFactors(diag, s.wx, mx, flux);
+  const fixed = valueNodes(shape, s, 0);
 
   function load(src: Float64Array, i: number): void {
     const o = i * modes;
     for (let q = 0; q < my; q++) {
-      const from = ((i + 1) * ny + q + 1) * nz + 1;
+      const from = ((i + first) * ny + q + 1) * nz + 1;
       const to = o + q * mz;
       for (let r = 0; r < mz; r++) w[to + r] = scale * src[from + r];
     }
@@ -446,7 +530,7 @@ function direct3(shape: readonly number[], s: SineStencil): (src: Float64Array, 
   function store(out: Float64Array, i: number): void {
     const o = i * modes;
     for (let q = 0; q < my; q++) {
-      const to = ((i + 1) * ny + q + 1) * nz + 1;
+      const to = ((i + first) * ny + q + 1) * nz + 1;
       const from = o + q * mz;
       for (let r = 0; r < mz; r++) out[to + r] = w[from + r];
     }
@@ -469,14 +553,14 @@ function direct3(shape: readonly number[], s: SineStencil): (src: Float64Array, 
     for (let i = 0; i < mx; i++) {
       load(src, i);
       transform(i);
-      eliminate(w, i, modes, wl, pivot, kept);
+      eliminate(w, i, f);
     }
     for (let i = mx - 1; i >= 0; i--) {
-      if (i + 1 < mx) substitute(w, i, modes, wl, pivot, kept, keep, 0);
+      if (i + 1 < mx) substitute(w, i, f, keep, 0);
       keep.set(w.subarray(i * modes, i * modes + modes));
       transform(i);
       store(out, i);
     }
-    copyRing(shape, src, out);
+    for (let q = 0; q < fixed.length; q++) out[fixed[q]!] = src[fixed[q]!]!;
   };
 }

@@ -5,10 +5,11 @@
  * Default solver, chosen from the problem:
  * - 1-D: a direct solve (Thomas when the system is tridiagonal, banded LU
  *   otherwise);
- * - 2-D with constant coefficients, a prescribed value on every edge and an
- *   even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …)
- *   on at least one axis (accuracy 2), or 3-D with a value on every face and
- *   such counts on y and z: the sine-transform direct solver (Hockney 1965;
+ * - 2-D with constant coefficients (accuracy 2), prescribed values on both
+ *   edges of an axis with an even number of cells with no prime factor
+ *   above 5 (2ᵏ, 10, 12, 100, …) and values or fluxes on the other two, or
+ *   3-D with such y and z and values or fluxes on the x faces (no
+ *   convection anywhere): the sine-transform direct solver (Hockney 1965;
  *   Swarztrauber 1977), O(N log N), refined against the matrix to the
  *   tolerance;
  * - symmetric systems (accuracy 2) on uniform 2-D / 3-D grids: conjugate
@@ -47,9 +48,9 @@ import { coordinateSpread, createSineTransformSolver, sineStencil } from '../lin
 export interface SimpleSolver {
   /**
    * 'auto' (module doc), 'direct' (Thomas or banded LU) or 'sine-transform'
-   * (the fast direct solver of constant-coefficient 2-D plates with a value
-   * on every edge and an even cell count with no prime factor above 5 on at
-   * least one axis, and of 3-D blocks with such counts on y and z; see
+   * (the fast direct solver of constant-coefficient 2-D plates and 3-D
+   * blocks with values across an axis, or y and z, whose cell counts are
+   * even with no prime factor above 5, and values or fluxes elsewhere; see
    * `sine-transform.ts`).
    */
   readonly method: 'auto' | 'direct' | 'sine-transform';
@@ -220,7 +221,7 @@ export function solveSteady(problem: Readonly<SteadyProblem>, options: Readonly<
   const sine = g.dimension >= 2 && pin < 0 && uniform && (choice.method === 'auto' || choice.method === 'sine-transform')
     ? sineStencil(g.shape, system.matrix.matrix, prescribed, coordinateSpread(g.axes)) : undefined;
   if (choice.method === 'sine-transform' && sine === undefined) {
-    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant conductivity and accuracy 2; use auto or cg');
+    throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid, constant conductivity, accuracy 2, a value on both faces of an axis with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …; y and z in 3-D), and a value or a flux on the other faces (no convection); use auto or cg');
   }
   if (choice.method === 'auto') {
     if (g.dimension === 1) method = { method: 'direct' };

@@ -3,9 +3,10 @@
  *
  * - 1-D, tridiagonal: Thomas algorithm, factored once.
  * - 1-D otherwise: banded LU, factored once.
- * - 2-D, constant coefficients, a value on every edge, an even cell count
- *   with no prime factor above 5 on at least one axis (3-D: a value on
- *   every face, such counts on y and z; accuracy 2, no advection): the
+ * - 2-D, constant coefficients, values on both edges of an axis with an
+ *   even cell count with no prime factor above 5 and values or fluxes on
+ *   the other two (3-D: such y and z, values or fluxes on the x faces;
+ *   accuracy 2, no advection or convection): the
  *   sine-transform direct solver, refined against the matrix to the
  *   tolerance (`sine-transform.ts`).
  * - symmetric 2-D / 3-D: conjugate gradients preconditioned by a multigrid
@@ -29,9 +30,10 @@ import { makeOperator } from '../operator/operator.js';
 
 /**
  * Which solver an implicit step uses: 'auto' (module doc), 'direct',
- * 'sine-transform' (constant-coefficient 2-D plates with a value on every
- * edge and an even cell count with no prime factor above 5 on at least one
- * axis; 3-D blocks with such counts on y and z), 'cg' or 'bicgstab'.
+ * 'sine-transform' (constant-coefficient 2-D plates and 3-D blocks with
+ * values across an axis, or y and z, whose cell counts are even with no
+ * prime factor above 5, and values or fluxes elsewhere), 'cg' or
+ * 'bicgstab'.
  */
 export type StepSolver = 'auto' | 'direct' | 'sine-transform' | 'cg' | 'bicgstab';
 
@@ -67,7 +69,7 @@ export function prepareSolve(
     ? sineStencil(g.shape, k, prescribed, coordinateSpread(g.axes)) : undefined;
   if (method === 'sine-transform') {
     if (sine === undefined) {
-      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …) on at least one axis in 2-D, on y and z in 3-D, a value on every edge or face, constant coefficients, accuracy 2 and no advection; use auto or cg');
+      throw new InvalidOptionError('solver', 'the sine-transform solver needs a uniform grid, constant coefficients, accuracy 2, no advection, a value on both faces of an axis with an even number of cells with no prime factor above 5 (2ᵏ, 10, 12, 100, …; y and z in 3-D), and a value or a flux on the other faces (no convection); use auto or cg');
     }
   }
   if (method === 'auto') method = g.dimension === 1 ? 'direct' : sine !== undefined ? 'sine-transform' : symmetric ? 'cg' : 'bicgstab';

@@ -130,7 +130,7 @@ describe('sineStencil: which matrices the transform solves', () => {
     expect(s!.d).toBeCloseTo(-2 * (s!.wx + s!.wy), 12);
   });
 
-  it('refuses cell counts the FFT does not take (odd, or a prime factor above 5; in 3-D on y or z), a flux or convection edge, variable k and accuracy 4', () => {
+  it('refuses cell counts the FFT does not take (odd, or a prime factor above 5; in 3-D on y or z), a convection edge, flux edges across both axes, variable k and accuracy 4', () => {
     const check = (g: ReturnType<typeof grid>, opts: Parameters<typeof discretize>[1]) => {
       const d = discretize(g, opts);
       return sineStencil(g.shape, d.system({}).matrix.matrix, Uint8Array.from(d.prescribed));
@@ -139,8 +139,13 @@ describe('sineStencil: which matrices the transform solves', () => {
     expect(check(sq(14), { boundary: allValue() })).toBeUndefined();
     expect(check(sq(9), { boundary: allValue() })).toBeUndefined();
     expect(check(sq(12), { boundary: allValue() })).toBeDefined();
+    // a flux edge on the lines axis is taken (x transformed, lines along y ending in the flux edge) …
     expect(check(sq(16), {
       boundary: [{ faces: ['xmin', 'xmax', 'ymin'], kind: 'dirichlet', value: 0 }, { faces: ['ymax'], kind: 'neumann', flux: 1 }],
+    })).toMatchObject({ lines: 1, fluxEnds: [false, true] });
+    // … but not when no axis has values at both ends, nor a convection edge
+    expect(check(sq(16), {
+      boundary: [{ faces: ['xmin', 'ymin'], kind: 'dirichlet', value: 0 }, { faces: ['xmax', 'ymax'], kind: 'neumann', flux: 1 }],
     })).toBeUndefined();
     expect(check(sq(16), {
       boundary: [{ faces: ['xmin', 'xmax', 'ymin'], kind: 'dirichlet', value: 0 }, { faces: ['ymax'], kind: 'robin', h: 10, ambient: 0 }],
@@ -261,11 +266,60 @@ describe('the sine-transform solve', () => {
     }
   });
 
+  it('flux (insulated or heated) edges on the lines axis: rows of half weight, solved in the line systems; 2-D either way round and 3-D', () => {
+    type Face = 'xmin' | 'xmax' | 'ymin' | 'ymax' | 'zmin' | 'zmax';
+    const cases: [number[], Face[], Face[]][] = [
+      // [cells], flux faces, value faces
+      [[12, 16], ['xmin', 'xmax'], ['ymin', 'ymax']],
+      [[12, 16], ['xmax'], ['xmin', 'ymin', 'ymax']],
+      [[9, 20], ['xmin'], ['xmax', 'ymin', 'ymax']],
+      [[2, 8], ['xmin', 'xmax'], ['ymin', 'ymax']],
+      [[16, 7], ['ymin', 'ymax'], ['xmin', 'xmax']],
+      [[10, 3], ['ymin'], ['ymax', 'xmin', 'xmax']],
+      [[7, 4, 6], ['xmin', 'xmax'], ['ymin', 'ymax', 'zmin', 'zmax']],
+      [[4, 8, 2], ['xmax'], ['xmin', 'ymin', 'ymax', 'zmin', 'zmax']],
+    ];
+    for (const [cells, fluxFaces, valueFaces] of cases) {
+      const axis = (e: number) => ({ from: 0.1 * e, to: 0.1 * e + 0.6 + 0.3 * e, cells: cells[e]! });
+      const g = cells.length === 2 ? grid({ x: axis(0), y: axis(1) }) : grid({ x: axis(0), y: axis(1), z: axis(2) });
+      const problem = {
+        grid: g,
+        conductivity: 1.3,
+        source: (...x: number[]) => Math.cos(x[0]! - 2 * x[1]!) + (x[2] ?? 0),
+        boundary: [
+          { faces: valueFaces, kind: 'dirichlet' as const, value: (...x: number[]) => x[0]! - x[1]! * x[1]! },
+          { faces: fluxFaces, kind: 'neumann' as const, flux: (...x: number[]) => 0.5 + x[0]! * x[1]! },
+        ],
+      };
+      const a = solveSteady(problem, { tolerance: 1e-13 });
+      const b = solveSteady(problem, { tolerance: 1e-13, solver: { method: 'cg', preconditioner: 'multigrid' } });
+      const what = `${cells.join(' × ')}, flux on ${fluxFaces.join(', ')}`;
+      expect(a.solver, what).toBe('sine-transform');
+      expect(a.iterations, what).toBe(1);
+      expect(relativeDifference(a.field.data, b.field.data), what).toBeLessThan(1e-10);
+      // the heat balance closes as for any solver of the conservative system
+      expect(a.heatBalance!.relative, what).toBeLessThan(1e-9);
+    }
+    // Crank–Nicolson steps of a plate with two insulated edges equal the CG steps
+    const g = grid({ x: { from: 0, to: 1, cells: 24 }, y: { from: 0, to: 1, cells: 32 } });
+    const wall = {
+      grid: g,
+      initial: (x: number, y: number) => Math.cos(3 * x) * y * (1 - y),
+      boundary: [{ faces: ['ymin', 'ymax'] as Face[], kind: 'dirichlet' as const, value: 0 }, { faces: ['xmin', 'xmax'] as Face[], kind: 'neumann' as const, flux: 0 }],
+    };
+    const opts = { scheme: 'crank-nicolson' as const, dt: 1e-3, endTime: 0.02, tolerance: 1e-12 };
+    const p = solveTransient(wall, opts);
+    const q = solveTransient(wall, { ...opts, solver: 'cg' });
+    expect([p.solver, q.solver]).toEqual(['sine-transform', 'cg+multigrid']);
+    expect(p.iterations).toBe(p.steps);
+    expect(relativeDifference(p.field.data, q.field.data)).toBeLessThan(1e-10);
+  });
+
   it('refuses a stencil that is not diagonally dominant (Thomas without pivoting needs it)', () => {
     const g = grid({ x: { from: 0, to: 1, cells: 8 }, y: { from: 0, to: 1, cells: 8 } });
     const d = discretize(g, { boundary: allValue() });
     const a = d.system({}).matrix.matrix;
-    expect(sineStencil(g.shape, a, Uint8Array.from(d.prescribed))).toEqual({ d: 4, wx: -1, wy: -1 });
+    expect(sineStencil(g.shape, a, Uint8Array.from(d.prescribed))).toMatchObject({ d: 4, wx: -1, wy: -1 });
     // the same pattern with the diagonal halved: |d| = 2 < 2|w_x| + 2|w_y| = 4
     const half = Float64Array.from(a.values);
     for (let r = 0; r < a.rows; r++) {
