@@ -80,8 +80,9 @@ export interface SineStencil {
   readonly wz?: number;
   /**
    * The axis of the tridiagonal lines (2-D: 0 for x, 1 for y; 3-D: always
-   * 0); the others are transformed. Default: x when y's cell count suits
-   * the transform, else y (3-D: x).
+   * 0); the others are transformed. {@link sineStencil} always sets it; the
+   * default, for stencils made by hand without flux ends, is x when y's
+   * cell count suits the transform, else y (3-D: x).
    */
   readonly lines?: number;
   /**

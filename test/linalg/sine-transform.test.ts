@@ -159,6 +159,19 @@ describe('sineStencil: which matrices the transform solves', () => {
       return sineStencil(g3.shape, d3.system({}).matrix.matrix, Uint8Array.from(d3.prescribed));
     };
     expect(block(7, 4, 4)).toBeDefined();
+    // 3-D flux faces only on x (the lines axis), never on a transformed y or z face
+    const fluxBlock = (faces: ('xmin' | 'ymin' | 'zmax')[]) => {
+      const g3 = grid({ x: { from: 0, to: 1, cells: 4 }, y: { from: 0, to: 1, cells: 4 }, z: { from: 0, to: 1, cells: 4 } });
+      const all = ['xmin', 'xmax', 'ymin', 'ymax', 'zmin', 'zmax'] as const;
+      const d3 = discretize(g3, { boundary: [
+        { faces: all.filter((f) => !(faces as string[]).includes(f)), kind: 'dirichlet', value: 0 },
+        { faces, kind: 'neumann', flux: 1 },
+      ] });
+      return sineStencil(g3.shape, d3.system({}).matrix.matrix, Uint8Array.from(d3.prescribed));
+    };
+    expect(fluxBlock(['xmin'])).toMatchObject({ lines: 0, fluxEnds: [true, false] });
+    expect(fluxBlock(['ymin'])).toBeUndefined();
+    expect(fluxBlock(['zmax'])).toBeUndefined();
     expect(block(4, 7, 4)).toBeUndefined();
     expect(block(4, 4, 9)).toBeUndefined();
   });
