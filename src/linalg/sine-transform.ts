@@ -180,6 +180,11 @@ export function sineStencil(
   const [wx, wy, wz] = w as [number, number, number];
   // every row, nodes in storage order (2-D as one z layer, so no z neighbours and no z faces)
   const onValue = (e: number, i: number, m: number): boolean => (i === 0 && value[e]![0]!) || (i === m - 1 && value[e]![1]!);
+  // the neighbours present: inside the grid and not on a value face (those columns are eliminated)
+  const has = (e: number, idx: number, m: number, side: number): boolean => {
+    const q = idx + side;
+    return q >= 0 && q < m && !onValue(e, q, m);
+  };
   let r = 0;
   for (let i = 0; i < nx; i++) {
     const vi = onValue(0, i, nx);
@@ -198,11 +203,6 @@ export function sineStencil(
         const lm = lines === 0 ? nx : ny;
         const flux = li === 0 || li === lm - 1;
         const half = flux ? 0.5 : 1;
-        // the neighbours present: inside the grid and not on a value face (those columns are eliminated)
-        const has = (e: number, idx: number, m: number, side: number): boolean => {
-          const q = idx + side;
-          return q >= 0 && q < m && !onValue(e, q, m);
-        };
         const expected = 1 + (has(0, i, nx, -1) ? 1 : 0) + (has(0, i, nx, 1) ? 1 : 0) + (has(1, j, ny, -1) ? 1 : 0) + (has(1, j, ny, 1) ? 1 : 0) +
           (three ? (has(2, k, nz, -1) ? 1 : 0) + (has(2, k, nz, 1) ? 1 : 0) : 0);
         const fx = lines === 0 ? 1 : half;
@@ -477,7 +477,7 @@ function direct2(shape: readonly number[], s: SineStencil): (src: Float64Array, 
         if (l + 2 < ml) substitute(w, l + 1, f, keep, 0);
         substitute(w, l, f, w, (l + 1) * mt);
       }
-      keep.set(w.subarray(l * mt, l * mt + mt));
+      for (let t = 0, o = l * mt; t < mt; t++) keep[t] = w[o + t];
       transform(l);
       store(out, l);
       if (l + 1 < ml) store(out, l + 1);
@@ -558,7 +558,7 @@ function direct3(shape: readonly number[], s: SineStencil): (src: Float64Array, 
     }
     for (let i = mx - 1; i >= 0; i--) {
       if (i + 1 < mx) substitute(w, i, f, keep, 0);
-      keep.set(w.subarray(i * modes, i * modes + modes));
+      for (let q = 0, o = i * modes; q < modes; q++) keep[q] = w[o + q];
       transform(i);
       store(out, i);
     }
